@@ -1,0 +1,202 @@
+/**
+ * The case schema: the single source of truth for a Twofold case, used by the app's forms,
+ * the JSON API, the worker and the solver. SI units everywhere; every numeric field carries
+ * its unit in `.meta({ unit })` and a range whose violation message names the field and the limit.
+ */
+import { z } from 'zod';
+
+export const SCHEMA_VERSION = 1 as const;
+
+export interface FieldMeta {
+	label: string;
+	unit: string;
+	/** what the field means, one line */
+	help?: string;
+}
+
+/** A bounded number with a default; the messages name the field and the limit with its unit. */
+function quantity(meta: FieldMeta, min: number, max: number, def: number, opts: { int?: boolean; exclusiveMin?: boolean } = {}) {
+	const u = meta.unit && meta.unit !== '1' ? ` ${meta.unit}` : '';
+	let s = z.number({ error: `${meta.label} must be a number` });
+	if (opts.int) s = s.int({ error: `${meta.label} must be a whole number` });
+	s = opts.exclusiveMin
+		? s.gt(min, { error: `${meta.label} must be greater than ${min}${u}` })
+		: s.min(min, { error: `${meta.label} must be at least ${min}${u}` });
+	s = s.max(max, { error: `${meta.label} must be at most ${max}${u}` });
+	return s.default(def).meta({ ...meta, min, max, default: def });
+}
+
+export const caseKinds = ['height-profile', 'cross-section'] as const;
+export type CaseKind = (typeof caseKinds)[number];
+
+export const dragLaws = [
+	'stokes',
+	'schiller-naumann',
+	'ishii-zuber',
+	'tomiyama-pure',
+	'tomiyama-slightly-contaminated',
+	'tomiyama-contaminated'
+] as const;
+export type DragLaw = (typeof dragLaws)[number];
+
+export const swarmCorrections = ['none', 'richardson-zaki', 'wallis'] as const;
+export const virtualMassModels = ['none', 'constant', 'zuber'] as const;
+export const liftModels = ['none', 'tomiyama', 'constant'] as const;
+export const wallLubricationModels = ['none', 'antal', 'tomiyama', 'hosokawa', 'frank'] as const;
+export const turbulentDispersionModels = ['none', 'lopez-de-bertodano', 'burns'] as const;
+export const bubbleInducedTurbulenceModels = ['none', 'sato'] as const;
+export const wallFrictionModels = ['none', 'blasius'] as const;
+export const convectionSchemes = ['donor-cell', 'van-leer', 'minmod'] as const;
+export const gasVelocityBases = ['sparger', 'normal'] as const;
+export const bubbleSizings = ['fixed', 'akita-yoshida'] as const;
+
+export const geometrySchema = z
+	.object({
+		heightM: quantity({ label: 'Column height', unit: 'm', help: 'sparger to top outlet' }, 0.1, 50, 2),
+		diameterM: quantity({ label: 'Inner diameter', unit: 'm' }, 0.02, 10, 0.2),
+		clearLiquidLevelM: quantity({ label: 'Clear-liquid level', unit: 'm', help: 'ungassed liquid height above the sparger' }, 0.05, 50, 1.5)
+	})
+	.prefault({});
+
+export const liquidSchema = z
+	.object({
+		name: z.string().trim().min(1, { error: 'Liquid name must not be empty' }).max(80, { error: 'Liquid name must be at most 80 characters' }).default('water'),
+		densityKgM3: quantity({ label: 'Liquid density', unit: 'kg/m³' }, 500, 2500, 998.2),
+		viscosityPaS: quantity({ label: 'Liquid viscosity', unit: 'Pa·s' }, 1e-4, 10, 1.002e-3),
+		surfaceTensionNM: quantity({ label: 'Surface tension', unit: 'N/m' }, 0.005, 0.2, 0.0727)
+	})
+	.prefault({});
+
+export const gasSchema = z
+	.object({
+		name: z.string().trim().min(1, { error: 'Gas name must not be empty' }).max(80, { error: 'Gas name must be at most 80 characters' }).default('air'),
+		molarMassKgMol: quantity({ label: 'Gas molar mass', unit: 'kg/mol' }, 0.002, 0.2, 0.02896),
+		viscosityPaS: quantity({ label: 'Gas viscosity', unit: 'Pa·s' }, 1e-6, 1e-4, 1.81e-5)
+	})
+	.prefault({});
+
+export const fluidsSchema = z
+	.object({
+		preset: z.string().max(80).nullable().default('air-water-20C'),
+		liquid: liquidSchema,
+		gas: gasSchema,
+		temperatureK: quantity({ label: 'Temperature', unit: 'K' }, 250, 500, 293.15),
+		topPressurePa: quantity({ label: 'Top pressure', unit: 'Pa', help: 'absolute pressure at the top outlet' }, 1e4, 1e7, 101325),
+		solute: z.string().trim().min(1).max(80).default('oxygen'),
+		soluteDiffusivityM2S: quantity({ label: 'Solute diffusivity in the liquid', unit: 'm²/s' }, 1e-11, 1e-7, 2.0e-9)
+	})
+	.prefault({});
+
+export const spargingSchema = z
+	.object({
+		superficialGasVelocityMS: quantity({ label: 'Superficial gas velocity', unit: 'm/s' }, 0, 1, 0.05),
+		gasVelocityBasis: z.enum(gasVelocityBases).default('sparger'),
+		superficialLiquidVelocityMS: quantity(
+			{ label: 'Superficial liquid velocity', unit: 'm/s', help: '0 = batch; positive = co-current (upward), negative = counter-current' },
+			-0.5,
+			0.5,
+			0
+		)
+	})
+	.prefault({});
+
+export const bubblesSchema = z
+	.object({
+		sizing: z.enum(bubbleSizings).default('fixed'),
+		diameterM: quantity({ label: 'Bubble diameter', unit: 'm', help: 'volume-equivalent (Sauter) diameter' }, 1e-5, 0.05, 0.004)
+	})
+	.prefault({});
+
+export const closuresSchema = z
+	.object({
+		drag: z.enum(dragLaws).default('schiller-naumann'),
+		swarm: z.enum(swarmCorrections).default('none'),
+		virtualMass: z.enum(virtualMassModels).default('constant'),
+		virtualMassCoefficient: quantity({ label: 'Virtual-mass coefficient', unit: '1' }, 0, 2, 0.5),
+		interfacialPressureCoefficient: quantity({ label: 'Interfacial-pressure coefficient', unit: '1' }, 0, 2, 0.25),
+		wallFriction: z.enum(wallFrictionModels).default('none'),
+		lift: z.enum(liftModels).default('tomiyama'),
+		liftCoefficient: quantity({ label: 'Constant lift coefficient', unit: '1' }, -1, 1, 0.1),
+		wallLubrication: z.enum(wallLubricationModels).default('antal'),
+		turbulentDispersion: z.enum(turbulentDispersionModels).default('burns'),
+		turbulentDispersionCoefficient: quantity({ label: 'Turbulent-dispersion coefficient', unit: '1' }, 0, 5, 1),
+		bubbleInducedTurbulence: z.enum(bubbleInducedTurbulenceModels).default('sato')
+	})
+	.prefault({});
+
+export const numericsSchema = z
+	.object({
+		cells: quantity({ label: 'Cells', unit: '1' }, 10, 5000, 100, { int: true }),
+		cflNumber: quantity({ label: 'CFL number', unit: '1' }, 0.01, 1, 0.5),
+		endTimeS: quantity({ label: 'End time', unit: 's' }, 0.01, 36000, 120),
+		steadyTolerance: quantity({ label: 'Steady tolerance', unit: '1' }, 1e-12, 1e-2, 1e-5),
+		snapshotIntervalS: quantity({ label: 'Snapshot interval', unit: 's' }, 0.01, 3600, 1),
+		scheme: z.enum(convectionSchemes).default('donor-cell'),
+		wallTimeLimitS: quantity({ label: 'Wall-time limit', unit: 's' }, 1, 86400, 600)
+	})
+	.prefault({});
+
+export const caseSchema = z
+	.object({
+		schemaVersion: z.literal(SCHEMA_VERSION, { error: `schemaVersion must be ${SCHEMA_VERSION}` }),
+		kind: z.enum(caseKinds).default('height-profile'),
+		name: z.string().trim().min(1, { error: 'Case name must not be empty' }).max(120, { error: 'Case name must be at most 120 characters' }).default('New case'),
+		geometry: geometrySchema,
+		fluids: fluidsSchema,
+		sparging: spargingSchema,
+		bubbles: bubblesSchema,
+		closures: closuresSchema,
+		numerics: numericsSchema
+	})
+	.superRefine((c, ctx) => {
+		if (c.kind === 'height-profile' && c.geometry.clearLiquidLevelM >= c.geometry.heightM) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['geometry', 'clearLiquidLevelM'],
+				message: `Clear-liquid level must be below the column height (${c.geometry.heightM} m)`
+			});
+		}
+		if (c.numerics.snapshotIntervalS > c.numerics.endTimeS) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['numerics', 'snapshotIntervalS'],
+				message: `Snapshot interval must not exceed the end time (${c.numerics.endTimeS} s)`
+			});
+		}
+	});
+
+/** A validated case, all defaults applied. */
+export type CaseDocument = z.output<typeof caseSchema>;
+/** What a caller may send: sections and fields may be omitted and take their defaults. */
+export type CaseInput = z.input<typeof caseSchema>;
+
+export interface CaseIssue {
+	/** dotted path, e.g. `geometry.heightM` */
+	path: string;
+	message: string;
+}
+
+export type ValidationResult = { ok: true; value: CaseDocument } | { ok: false; issues: CaseIssue[] };
+
+/** Validate an unknown document against the case schema; never throws. */
+export function validateCase(doc: unknown): ValidationResult {
+	if (doc && typeof doc === 'object' && 'schemaVersion' in doc) {
+		const v = (doc as { schemaVersion: unknown }).schemaVersion;
+		if (typeof v === 'number' && v > SCHEMA_VERSION) {
+			return {
+				ok: false,
+				issues: [{ path: 'schemaVersion', message: `This document has schemaVersion ${v}, newer than this Twofold understands (${SCHEMA_VERSION})` }]
+			};
+		}
+	}
+	const r = caseSchema.safeParse(doc);
+	if (r.success) return { ok: true, value: r.data };
+	return { ok: false, issues: r.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })) };
+}
+
+/** A complete default case of the given kind. */
+export function defaultCase(kind: CaseKind = 'height-profile'): CaseDocument {
+	const c = caseSchema.parse({ schemaVersion: SCHEMA_VERSION, kind });
+	if (kind === 'cross-section') c.numerics.cells = 60;
+	return c;
+}
