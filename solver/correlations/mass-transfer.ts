@@ -1,0 +1,25 @@
+/**
+ * Gas–liquid mass transfer: liquid-side coefficient, interfacial area and k_L a.
+ */
+import { columnGroups, type ColumnInput } from './groups.js';
+
+/** Higbie (1935), Trans. AIChE 31, 365: k_L = 2 √(D_L/(π t_c)), m/s; contact time t_c = d/u_r for bubbles (common practice). */
+export function higbieMassTransferCoefficient(o: { diffusivityM2S: number; diameterM: number; slipMS: number }): number {
+	const tc = o.diameterM / Math.abs(o.slipMS);
+	return 2 * Math.sqrt(o.diffusivityM2S / (Math.PI * tc));
+}
+
+/** Interfacial area per unit volume of spheres a = 6 α/d₃₂, 1/m. */
+export function interfacialArea(o: { holdup: number; diameterM: number }): number {
+	return (6 * o.holdup) / o.diameterM;
+}
+
+/**
+ * Akita & Yoshida (1973): k_L a D²/D_L = 0.6 Sc^0.5 Bo^0.62 Ga^0.31 ε^1.1, Sc = ν_l/D_L (constants from memory), 1/s.
+ */
+export function akitaYoshidaKLa(o: ColumnInput & { holdup: number; diffusivityM2S: number }): number {
+	const { bond, galilei } = columnGroups(o);
+	const sc = o.liquidViscosityPaS / o.liquidDensityKgM3 / o.diffusivityM2S;
+	const rhs = 0.6 * Math.sqrt(sc) * Math.pow(bond, 0.62) * Math.pow(galilei, 0.31) * Math.pow(o.holdup, 1.1);
+	return (rhs * o.diffusivityM2S) / (o.diameterM * o.diameterM);
+}

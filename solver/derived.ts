@@ -1,0 +1,87 @@
+/**
+ * Cheap derived numbers for the case editor (browser-safe: pure arithmetic, no solver run).
+ */
+import type { CaseDocument } from './case.js';
+import { eotvosNumber, terminalVelocity } from './closures/drag.js';
+import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
+import { regimeFromBand } from './correlations/regime.js';
+import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
+
+export interface DerivedNumbers {
+	/** bubble diameter used by the model (fixed, or Akita–Yoshida 1974), m */
+	bubbleDiameterM: number;
+	eotvos: number;
+	morton: number;
+	/** single-bubble terminal velocity of the chosen drag law, m/s */
+	terminalVelocityMS: number;
+	/** Reynolds number at that velocity */
+	terminalReynolds: number;
+	/** gas density at the sparger with the column at rest (top pressure + clear-liquid head), kg/m³ */
+	spargerGasDensityKgM3: number;
+	/** gas density at the top pressure, kg/m³ */
+	topGasDensityKgM3: number;
+	/** superficial gas velocity at sparger conditions, m/s */
+	spargerSuperficialGasVelocityMS: number;
+	/** gas mass flux fed at the sparger, kg/(m² s) */
+	gasMassFluxKgM2S: number;
+	regime: 0 | 1;
+	regimeLabel: string;
+	cellSizeM: number;
+	/** first time step from the material CFL with the terminal velocity as the velocity scale, s */
+	firstTimeStepS: number;
+}
+
+export function spargerPressurePaAtRest(c: CaseDocument): number {
+	return c.fluids.topPressurePa + c.fluids.liquid.densityKgM3 * GRAVITY_MS2 * c.geometry.clearLiquidLevelM;
+}
+
+/** Gas mass flux fed at the sparger, kg/(m² s), from the superficial velocity on its stated basis. */
+export function gasMassFlux(c: CaseDocument): number {
+	const basisPressure = c.sparging.gasVelocityBasis === 'normal' ? NORMAL_PRESSURE_PA : spargerPressurePaAtRest(c);
+	const basisTemperature = c.sparging.gasVelocityBasis === 'normal' ? NORMAL_TEMPERATURE_K : c.fluids.temperatureK;
+	const rho = idealGasDensity({ pressurePa: basisPressure, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: basisTemperature });
+	return rho * c.sparging.superficialGasVelocityMS;
+}
+
+/** Bubble diameter of the case: the fixed value, or Akita & Yoshida (1974) at sparger conditions. */
+export function bubbleDiameter(c: CaseDocument): number {
+	if (c.bubbles.sizing === 'fixed' || c.sparging.superficialGasVelocityMS <= 0) return c.bubbles.diameterM;
+	const rhoSp = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	return akitaYoshidaSauterDiameter({
+		diameterM: c.geometry.diameterM,
+		superficialGasVelocityMS: gasMassFlux(c) / rhoSp,
+		liquidDensityKgM3: c.fluids.liquid.densityKgM3,
+		liquidViscosityPaS: c.fluids.liquid.viscosityPaS,
+		surfaceTensionNM: c.fluids.liquid.surfaceTensionNM
+	});
+}
+
+export function derivedNumbers(c: CaseDocument): DerivedNumbers {
+	const l = c.fluids.liquid;
+	const g = GRAVITY_MS2;
+	const pSp = spargerPressurePaAtRest(c);
+	const rhoSp = idealGasDensity({ pressurePa: pSp, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rhoTop = idealGasDensity({ pressurePa: c.fluids.topPressurePa, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const d = bubbleDiameter(c);
+	const props = { diameterM: d, liquidDensityKgM3: l.densityKgM3, gasDensityKgM3: rhoSp, liquidViscosityPaS: l.viscosityPaS, surfaceTensionNM: l.surfaceTensionNM };
+	const ut = terminalVelocity({ law: c.closures.drag, ...props });
+	const dRho = l.densityKgM3 - rhoSp;
+	const massFlux = gasMassFlux(c);
+	const regime = regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
+	const dz = c.geometry.heightM / c.numerics.cells;
+	return {
+		bubbleDiameterM: d,
+		eotvos: eotvosNumber(props),
+		morton: (g * Math.pow(l.viscosityPaS, 4) * dRho) / (l.densityKgM3 * l.densityKgM3 * Math.pow(l.surfaceTensionNM, 3)),
+		terminalVelocityMS: ut,
+		terminalReynolds: (l.densityKgM3 * ut * d) / l.viscosityPaS,
+		spargerGasDensityKgM3: rhoSp,
+		topGasDensityKgM3: rhoTop,
+		spargerSuperficialGasVelocityMS: massFlux / rhoSp,
+		gasMassFluxKgM2S: massFlux,
+		regime: regime.value,
+		regimeLabel: regime.label,
+		cellSizeM: dz,
+		firstTimeStepS: (c.numerics.cflNumber * dz) / Math.max(ut + Math.abs(c.sparging.superficialLiquidVelocityMS) + massFlux / rhoTop, 1e-3)
+	};
+}
