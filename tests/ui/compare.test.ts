@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest';
+import { closureTable, designTable, interpolate, spreadBand, type CompareRun } from '../../src/lib/compare';
+
+const run = (id: string, drag: string, holdup: number): CompareRun => ({
+	id,
+	label: id,
+	caseDocument: { closures: { drag, lift: 'none' } },
+	design: { overallHoldup: { value: holdup, unit: '1', label: 'Overall gas holdup' } }
+});
+
+describe('comparison helpers', () => {
+	it('flags the closure settings that differ between runs and only those', () => {
+		const rows = closureTable([run('a', 'schiller-naumann', 0.2), run('b', 'tomiyama-pure', 0.18)]);
+		expect(rows.find((r) => r.key === 'drag')).toMatchObject({ differs: true, values: ['schiller-naumann', 'tomiyama-pure'] });
+		expect(rows.find((r) => r.key === 'lift')?.differs).toBe(false);
+	});
+
+	it('gives each run its delta against the baseline and none for the baseline itself', () => {
+		const [row] = designTable({ runs: [run('a', 'x', 0.2), run('b', 'y', 0.15)], baselineId: 'a' });
+		expect(row.deltas[0]).toBeNull();
+		expect(row.deltas[1]).toBeCloseTo(-0.05, 12);
+		expect(row.relativeDeltas[1]).toBeCloseTo(-0.25, 12);
+	});
+
+	// a linear function is reproduced exactly by linear interpolation
+	it('interpolates a straight line exactly and clamps outside the range', () => {
+		const x = [0, 1, 2, 4];
+		const y = x.map((v) => 3 * v + 1);
+		expect(interpolate(x, y, 2.5)).toBeCloseTo(8.5, 12);
+		expect(interpolate(x, y, 0.25)).toBeCloseTo(1.75, 12);
+		expect(interpolate(x, y, -1)).toBe(1);
+		expect(interpolate(x, y, 9)).toBe(13);
+	});
+
+	it('draws the spread band as the pointwise minimum and maximum of profiles on different grids', () => {
+		const a = { x: [0, 1, 2], y: [0.1, 0.2, 0.3] };
+		const b = { x: [0, 0.5, 1, 1.5, 2], y: [0.3, 0.25, 0.2, 0.15, 0.1] };
+		const band = spreadBand({ x: a.x, profiles: [a, b] });
+		expect(Array.from(band.lower)).toEqual([0.1, 0.2, 0.1]);
+		expect(Array.from(band.upper)).toEqual([0.3, 0.2, 0.3]);
+	});
+});
