@@ -30,7 +30,7 @@ describe('reading a measurement file', () => {
 		expect(psi.ok && psi.table.y[0]).toBeCloseTo(101352.9, 1);
 		const r = parseMeasurementCsv({ text: '0\t0.21\n0.5\t0.15\n0.95\t0.02\n', kind: 'holdup-radial', xUnit: '1', yUnit: '1' });
 		expect(r.ok && r.table.x).toEqual([0, 0.5, 0.95]);
-		const v = parseMeasurementCsv({ text: '0,32\n0.7,0\n0.9,-12.5\n', kind: 'velocity-radial', xUnit: '1', yUnit: 'cm/s' });
+		const v = parseMeasurementCsv({ text: '0,32\n0.7,0\n0.9,-12.5\n', kind: 'liquid-velocity-radial', xUnit: '1', yUnit: 'cm/s' });
 		expect(v.ok && v.table.y).toEqual([0.32, 0, -0.125]);
 		// 1 min = 60 s; 1 mg/L = 1 g/m³ = 1e-3 kg/m³
 		const d = parseMeasurementCsv({ text: 'time,DO\n0,0.5\n1.5,2.25\n', kind: 'dissolved-oxygen', xUnit: 'min', yUnit: 'mg/L' });

@@ -6,7 +6,7 @@ describe('CSV exports', () => {
 		const x = [0.1, 0.35, 1.2345678901234567];
 		const y = [0.0123456789, 0.2, 1 / 3];
 		const csv = measurementToCsv({ kind: 'holdup-height', x, y });
-		expect(csv.split('\r\n')[0]).toBe('height above the sparger [m],gas holdup [1]');
+		expect(csv.split('\r\n')[0]).toBe('height above the sparger [m],gas holdup [-]');
 		const back = parseMeasurementCsv({ text: csv, kind: 'holdup-height', xUnit: 'm', yUnit: '1', columnHeightM: 2 });
 		expect(back.ok && back.table.x).toEqual(x);
 		expect(back.ok && back.table.y).toEqual(y);
@@ -21,7 +21,7 @@ describe('CSV exports', () => {
 
 	it('writes profiles with the position first and fields in name order', () => {
 		const csv = profilesToCsv({ x: new Float64Array([0.05, 0.15]), fields: { pressurePa: new Float64Array([101000, 100000]), alphaGas: new Float64Array([0.1, NaN]) }, positionLabel: 'height' });
-		expect(csv).toBe('height [m],alphaGas [1],pressurePa [Pa]\r\n0.05,0.1,101000\r\n0.15,,100000');
+		expect(csv).toBe('height [m],alphaGas [-],pressurePa [Pa]\r\n0.05,0.1,101000\r\n0.15,,100000');
 	});
 
 	it('writes a residual history with an empty cell where a residual is absent', () => {
@@ -31,11 +31,11 @@ describe('CSV exports', () => {
 				{ step: 2, timeS: 0.02, residuals: { gasMass: 5e-4 } }
 			]
 		});
-		expect(csv).toBe('step [1],time [s],gasMass [1],liquidMass [1]\r\n1,0.01,0.001,0.0002\r\n2,0.02,0.0005,');
+		expect(csv).toBe('step [-],time [s],gasMass [-],liquidMass [-]\r\n1,0.01,0.001,0.0002\r\n2,0.02,0.0005,');
 	});
 
 	it('escapes text a spreadsheet would run as a formula and refuses ragged columns', () => {
-		expect(columnsToCsv({ columns: [{ label: '=HYPERLINK("x")', unit: '1', values: [1] }] }).split('\r\n')[0]).toBe('"\'=HYPERLINK(""x"") [1]"');
+		expect(columnsToCsv({ columns: [{ label: '=HYPERLINK("x")', unit: '1', values: [1] }] }).split('\r\n')[0]).toBe('"\'=HYPERLINK(""x"") [-]"');
 		expect(() => columnsToCsv({ columns: [{ label: 'a', unit: '1', values: [1] }, { label: 'b', unit: '1', values: [] }] })).toThrow('Column "b" has 0 values, expected 1');
 	});
 

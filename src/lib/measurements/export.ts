@@ -1,6 +1,6 @@
 /**
  * CSV downloads (papaparse `unparse`): profiles of a snapshot, residual histories and measurements.
- * Each file has one header row `label [unit]` and numbers in full double precision (JavaScript's
+ * Each file has one header row `label [unit]` (`[-]` for dimensionless, as in `src/lib/csv.ts`) and numbers in full double precision (JavaScript's
  * shortest round-trip form), so a measurement exported here reads back through
  * `parseMeasurementCsv` unchanged. Text cells that a spreadsheet would run as a formula are
  * escaped; a missing or non-finite number is an empty cell.
@@ -15,6 +15,10 @@ export interface CsvColumn {
 	values: ArrayLike<number>;
 }
 
+function header(label: string, unit: string): string {
+	return `${label} [${unit === '1' || unit === '' ? '-' : unit}]`;
+}
+
 function cell(v: number | undefined): number | string {
 	return v === undefined || !Number.isFinite(v) ? '' : v;
 }
@@ -27,7 +31,7 @@ export function columnsToCsv(opts: { columns: CsvColumn[] }): string {
 	for (const c of columns) if (c.values.length !== n) throw new Error(`Column "${c.label}" has ${c.values.length} values, expected ${n}`);
 	const data: Array<Array<number | string>> = [];
 	for (let i = 0; i < n; i++) data.push(columns.map((c) => cell(c.values[i])));
-	return Papa.unparse({ fields: columns.map((c) => `${c.label} [${c.unit}]`), data }, { escapeFormulae: true });
+	return Papa.unparse({ fields: columns.map((c) => header(c.label, c.unit)), data }, { escapeFormulae: true });
 }
 
 /** Units of the fields a snapshot may hold, for the header; unknown names are written with `?`. */
@@ -67,7 +71,7 @@ export function profilesToCsv(opts: {
  */
 export function residualHistoryToCsv(opts: { rows: Array<{ step: number; timeS: number; residuals: Record<string, number> }> }): string {
 	const names = [...new Set(opts.rows.flatMap((r) => Object.keys(r.residuals)))].sort();
-	const fields = ['step [1]', 'time [s]', ...names.map((n) => `${n} [1]`)];
+	const fields = ['step [-]', 'time [s]', ...names.map((n) => header(n, '1'))];
 	const data = opts.rows.map((r) => [r.step, cell(r.timeS), ...names.map((n) => cell(r.residuals[n]))]);
 	return Papa.unparse({ fields, data }, { escapeFormulae: true });
 }

@@ -7,7 +7,7 @@
  * `si = value · factor + offset` (the offset is only non-zero for °C).
  */
 
-export const measurementKinds = ['holdup-height', 'pressure-height', 'holdup-radial', 'velocity-radial', 'dissolved-oxygen'] as const;
+export const measurementKinds = ['holdup-height', 'pressure-height', 'holdup-radial', 'liquid-velocity-radial', 'dissolved-oxygen'] as const;
 export type MeasurementKind = (typeof measurementKinds)[number];
 
 export interface Unit {
@@ -123,8 +123,8 @@ export const kindSpecs: Record<MeasurementKind, KindSpec> = {
 		yRange: [0, 1],
 		yRangeText: 'a holdup must lie between 0 and 1'
 	},
-	'velocity-radial': {
-		kind: 'velocity-radial',
+	'liquid-velocity-radial': {
+		kind: 'liquid-velocity-radial',
 		label: 'Radial liquid velocity profile',
 		x: { key: 'radiusRatio', label: 'r/R', quantity: 'radial-position', siUnit: '1', defaultUnit: '1' },
 		y: { key: 'liquidVelocityMS', label: 'axial liquid velocity', quantity: 'velocity', siUnit: 'm/s', defaultUnit: 'm/s' },
