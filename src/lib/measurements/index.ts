@@ -8,3 +8,5 @@ export * from './compare.js';
 export * from './reaeration.js';
 export * from './export.js';
 export { studentTQuantile, studentTCdf } from './stats.js';
+export * from './upload.js';
+export * from './case-json.js';
