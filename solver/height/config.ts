@@ -1,0 +1,147 @@
+/**
+ * Configuration of the height-profile model in SI units, built from a case or directly (for the
+ * verification problems, which need pipe and closed-tube ends that a bubble-column case does not have).
+ */
+import type { CaseDocument, DragLaw } from '../case.js';
+import { terminalVelocity } from '../closures/drag.js';
+import type { SwarmCorrection } from '../closures/swarm.js';
+import type { VirtualMassModel } from '../closures/virtual-mass.js';
+import type { WallFrictionModel } from '../closures/friction.js';
+import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
+import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2, idealGasDensity } from '../fluids.js';
+
+/** Bottom end (z = 0): prescribed inflow of both phases, or a closed wall. */
+export type BottomBoundary =
+	| {
+			kind: 'inflow';
+			/** gas mass flux entering, kg/(m² s) */
+			gasMassFluxKgM2S: number;
+			/** liquid volume flux entering (superficial velocity), m/s; negative = liquid leaves */
+			liquidVolumeFluxMS: number;
+			/** velocities of the incoming phases for momentum convection; omitted = zero gradient */
+			gasVelocityMS?: number;
+			liquidVelocityMS?: number;
+	  }
+	| { kind: 'wall' };
+
+/** Top end (z = H): a pressure outlet, or a closed wall whose pressure is pinned (incompressible phases only). */
+export type TopBoundary =
+	| {
+			kind: 'pressure';
+			pressurePa: number;
+			/**
+			 * closed: liquid neither leaves nor enters (batch column); open: liquid may leave, what enters is gas;
+			 * feed: liquid enters at a prescribed superficial velocity (counter-current operation)
+			 */
+			liquid: 'closed' | 'open' | 'feed';
+			liquidFeedMS?: number;
+	  }
+	| { kind: 'wall'; pressurePa: number };
+
+export interface HeightModelConfig {
+	cells: number;
+	heightM: number;
+	diameterM: number;
+	liquidDensityKgM3: number;
+	liquidViscosityPaS: number;
+	surfaceTensionNM: number;
+	gasMolarMassKgMol: number;
+	gasViscosityPaS: number;
+	temperatureK: number;
+	/** constant gas density; when omitted the gas is ideal with ρ_g = p M/(R T) */
+	gasDensityKgM3?: number;
+	/** signed axial component of gravity, m/s² (−9.81 for a column with z upward) */
+	gravityAxialMS2: number;
+	bubbleDiameterM: number;
+	/** 'none' switches interfacial drag off (the faucet benchmark assumes no interfacial friction) */
+	drag: DragLaw | 'none';
+	swarm: SwarmCorrection;
+	virtualMass: VirtualMassModel;
+	virtualMassCoefficient: number;
+	interfacialPressureCoefficient: number;
+	wallFriction: WallFrictionModel;
+	/** separated-flow limit above the level: blend bubbly drag into droplet drag between these holdups */
+	dropletBlend: { fromHoldup: number; toHoldup: number; dropDiameterM: number } | null;
+	scheme: CaseDocument['numerics']['scheme'];
+	cflNumber: number;
+	maxTimeStepS: number;
+	endTimeS: number;
+	steadyTolerance: number;
+	/** false: never stop on steady state (benchmarks with a fixed end time) */
+	detectSteady: boolean;
+	/** length of the window over which the steady rule compares integral measures, s */
+	steadyWindowS: number;
+	bottom: BottomBoundary;
+	top: TopBoundary;
+	initial: {
+		/** gas holdup per cell */
+		holdup: (zBottomM: number, zTopM: number) => number;
+		gasVelocityMS: number;
+		liquidVelocityMS: number;
+	};
+	/** velocity scale for the first time step, m/s */
+	velocityScaleMS: number;
+	/** gas density at the sparger with the column at rest (normalises residuals), kg/m³ */
+	referenceGasDensityKgM3: number;
+	clearLiquidLevelM: number;
+	soluteDiffusivityM2S: number;
+}
+
+/** Build the model configuration of a validated height-profile case. */
+export function configFromCase(c: CaseDocument): HeightModelConfig {
+	const d = bubbleDiameter(c);
+	const pSp = spargerPressurePaAtRest(c);
+	const rhoSp = idealGasDensity({ pressurePa: pSp, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const l = c.fluids.liquid;
+	const ut = terminalVelocity({ law: c.closures.drag, diameterM: d, liquidDensityKgM3: l.densityKgM3, gasDensityKgM3: rhoSp, liquidViscosityPaS: l.viscosityPaS, surfaceTensionNM: l.surfaceTensionNM });
+	const level = c.geometry.clearLiquidLevelM;
+	const jl = c.sparging.superficialLiquidVelocityMS;
+	return {
+		cells: c.numerics.cells,
+		heightM: c.geometry.heightM,
+		diameterM: c.geometry.diameterM,
+		liquidDensityKgM3: l.densityKgM3,
+		liquidViscosityPaS: l.viscosityPaS,
+		surfaceTensionNM: l.surfaceTensionNM,
+		gasMolarMassKgMol: c.fluids.gas.molarMassKgMol,
+		gasViscosityPaS: c.fluids.gas.viscosityPaS,
+		temperatureK: c.fluids.temperatureK,
+		gravityAxialMS2: -GRAVITY_MS2,
+		bubbleDiameterM: d,
+		drag: c.closures.drag,
+		swarm: c.closures.swarm,
+		virtualMass: c.closures.virtualMass,
+		virtualMassCoefficient: c.closures.virtualMassCoefficient,
+		interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient,
+		wallFriction: c.closures.wallFriction,
+		dropletBlend: { fromHoldup: 0.7, toHoldup: 0.9, dropDiameterM: 1e-3 },
+		scheme: c.numerics.scheme,
+		cflNumber: c.numerics.cflNumber,
+		maxTimeStepS: 0.05,
+		endTimeS: c.numerics.endTimeS,
+		steadyTolerance: c.numerics.steadyTolerance,
+		detectSteady: true,
+		steadyWindowS: 1,
+		bottom: { kind: 'inflow', gasMassFluxKgM2S: gasMassFlux(c), liquidVolumeFluxMS: jl },
+		top:
+			jl > 0
+				? { kind: 'pressure', pressurePa: c.fluids.topPressurePa, liquid: 'open' }
+				: jl < 0
+					? { kind: 'pressure', pressurePa: c.fluids.topPressurePa, liquid: 'feed', liquidFeedMS: -jl }
+					: { kind: 'pressure', pressurePa: c.fluids.topPressurePa, liquid: 'closed' },
+		initial: {
+			holdup: (z0, z1) => (z1 <= level ? 0 : z0 >= level ? 1 : 1 - (level - z0) / (z1 - z0)),
+			gasVelocityMS: 0,
+			liquidVelocityMS: 0
+		},
+		velocityScaleMS: ut + Math.abs(jl) + c.sparging.superficialGasVelocityMS,
+		referenceGasDensityKgM3: rhoSp,
+		clearLiquidLevelM: level,
+		soluteDiffusivityM2S: c.fluids.soluteDiffusivityM2S
+	};
+}
+
+/** dρ_g/dp of the configured gas, s²/m² (0 for a constant-density gas). */
+export function gasCompressibility(cfg: HeightModelConfig): number {
+	return cfg.gasDensityKgM3 === undefined ? cfg.gasMolarMassKgMol / (GAS_CONSTANT_J_MOL_K * cfg.temperatureK) : 0;
+}

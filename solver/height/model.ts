@@ -1,0 +1,571 @@
+/**
+ * The height-profile model: a 1-D transient two-fluid (gas–liquid) column.
+ *
+ * Equations (z upward for a column, g_z the signed axial gravity; α gas holdup, α_l = 1 − α):
+ *   ∂(α ρ_g)/∂t + ∂(α ρ_g u_g)/∂z = 0,             ρ_g = p M/(R T) (ideal gas) or constant
+ *   ∂α_l/∂t + ∂(α_l u_l)/∂z = 0                       (incompressible liquid)
+ *   α ρ_g D_g u_g/Dt = −α ∂p/∂z + α ρ_g g_z − K(u_g − u_l) + F_VM − Δp_i ∂α/∂z
+ *   α_l ρ_l D_l u_l/Dt = −α_l ∂p/∂z + α_l ρ_l g_z + K(u_g − u_l) − F_VM + Δp_i ∂α/∂z − λ u_l
+ * with F_VM = C_VM α ρ_l (D_l u_l/Dt − D_g u_g/Dt), Δp_i = C_p ρ_l (u_g − u_l)² (PHYSICS §2, §3) and
+ * K = (3/4) α ρ_l C_D |u_r|/d, blended above the level into a droplet drag ∝ α_l (PHYSICS §18.1).
+ *
+ * Numerics (Liles & Reed 1978 style, PHYSICS §12): staggered grid (α, p, ρ_g at cell centres, u_g, u_l
+ * at faces); per face the momentum pair is linear in the new velocities and the new pressure difference,
+ * with drag, virtual-mass accelerations and wall friction implicit and solved by the exact 2×2 elimination;
+ * convection explicit upwind. Substituting the face velocities into the volume balance
+ * Σ_k (mass_k / ρ_k), linearised in the gas density, gives one tridiagonal system for the pressure change.
+ * Then the liquid fraction is advanced conservatively with donor-cell (optionally TVD-limited) fluxes
+ * built from the old-time velocity direction, and ρ_g follows from the new pressure.
+ *
+ * Boundaries: bottom inflow (gas mass flux, liquid volume flux) or wall; top pressure outlet (gas leaves
+ * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
+ * No allocation per step: every array is allocated once in the constructor.
+ */
+import { dragCoefficientTimesReynolds, eotvosNumber, terminalVelocity } from '../closures/drag.js';
+import { swarmExponent } from '../closures/swarm.js';
+import { wallFrictionCoefficient } from '../closures/friction.js';
+import type { HeightModelConfig } from './config.js';
+import { gasCompressibility } from './config.js';
+import type { RunStatus } from '../types.js';
+
+/** Holdup floor inside the momentum coefficients: keeps the velocity of an absent phase defined (its would-be slip). */
+const PRESENT_EPS = 1e-12;
+/** A phase limits the time step only in cells where its fraction exceeds this (PHYSICS §18.1: dilute drops). */
+const CFL_PRESENCE = 1e-4;
+/** Largest growth of the time step from one step to the next. */
+const DT_GROWTH = 1.2;
+/** A time step below this (s) with time left to run is reported as a collapse. */
+const DT_COLLAPSE_S = 1e-9;
+
+export interface StepDiagnostics {
+	/** gas mass flux in at the bottom and out at the top, kg/(m² s) */
+	gasInKgM2S: number;
+	gasOutKgM2S: number;
+	/** liquid volume flux in at the bottom and out at the top, m/s */
+	liquidInMS: number;
+	liquidOutMS: number;
+}
+
+export class HeightModel {
+	readonly cfg: HeightModelConfig;
+	readonly n: number;
+	readonly dz: number;
+	readonly zCentre: Float64Array;
+	// state
+	readonly liquidFraction: Float64Array;
+	readonly pressure: Float64Array;
+	readonly gasDensity: Float64Array;
+	readonly gasVelocity: Float64Array;
+	readonly liquidVelocity: Float64Array;
+	timeS = 0;
+	stepCount = 0;
+	dtS = 0;
+	status: RunStatus = 'running';
+	message: string | undefined = undefined;
+	// scratch (face coefficients, tridiagonal system, fluxes)
+	private readonly ug0: Float64Array;
+	private readonly dg: Float64Array;
+	private readonly ul0: Float64Array;
+	private readonly dl: Float64Array;
+	private readonly wg: Float64Array;
+	private readonly wl: Float64Array;
+	private readonly hf: Float64Array;
+	private readonly dpOld: Float64Array;
+	private readonly solved: Uint8Array;
+	private readonly triLo: Float64Array;
+	private readonly triDi: Float64Array;
+	private readonly triUp: Float64Array;
+	private readonly triRhs: Float64Array;
+	private readonly triC: Float64Array;
+	private readonly dp: Float64Array;
+	readonly gasFlux: Float64Array;
+	readonly liquidFlux: Float64Array;
+	private readonly lfOld: Float64Array;
+	// constants
+	private readonly psi: number;
+	private readonly eotvos: number;
+	private readonly lawIndex: number;
+	private readonly swarmN: number;
+	private readonly outsideGasDensity: number;
+	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
+	/** max |Δα_l|/Δt of the last step, 1/s */
+	lastMaxHoldupRate = 0;
+
+	constructor(cfg: HeightModelConfig) {
+		this.cfg = cfg;
+		const n = cfg.cells;
+		this.n = n;
+		this.dz = cfg.heightM / n;
+		this.zCentre = new Float64Array(n);
+		for (let i = 0; i < n; i++) this.zCentre[i] = (i + 0.5) * this.dz;
+		this.liquidFraction = new Float64Array(n);
+		this.pressure = new Float64Array(n);
+		this.gasDensity = new Float64Array(n);
+		this.gasVelocity = new Float64Array(n + 1);
+		this.liquidVelocity = new Float64Array(n + 1);
+		this.ug0 = new Float64Array(n + 1);
+		this.dg = new Float64Array(n + 1);
+		this.ul0 = new Float64Array(n + 1);
+		this.dl = new Float64Array(n + 1);
+		this.wg = new Float64Array(n + 1);
+		this.wl = new Float64Array(n + 1);
+		this.hf = new Float64Array(n + 1);
+		this.dpOld = new Float64Array(n + 1);
+		this.solved = new Uint8Array(n + 1);
+		this.triLo = new Float64Array(n);
+		this.triDi = new Float64Array(n);
+		this.triUp = new Float64Array(n);
+		this.triRhs = new Float64Array(n);
+		this.triC = new Float64Array(n);
+		this.dp = new Float64Array(n);
+		this.gasFlux = new Float64Array(n + 1);
+		this.liquidFlux = new Float64Array(n + 1);
+		this.lfOld = new Float64Array(n);
+		this.psi = gasCompressibility(cfg);
+		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
+		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
+		this.eotvos = eotvosNumber({ diameterM: cfg.bubbleDiameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: Math.abs(cfg.gravityAxialMS2) });
+		this.lawIndex = cfg.drag === 'none' ? -1 : 0;
+		let reT = 0;
+		if (cfg.drag !== 'none' && cfg.swarm !== 'none') {
+			const ut = terminalVelocity({ law: cfg.drag, diameterM: cfg.bubbleDiameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, liquidViscosityPaS: cfg.liquidViscosityPaS, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: Math.abs(cfg.gravityAxialMS2) });
+			reT = (cfg.liquidDensityKgM3 * ut * cfg.bubbleDiameterM) / cfg.liquidViscosityPaS;
+		}
+		this.swarmN = swarmExponent({ model: cfg.swarm, terminalReynolds: reT });
+		this.initialise();
+	}
+
+	private initialise(): void {
+		const { cfg, n, dz } = this;
+		for (let i = 0; i < n; i++) {
+			const a = cfg.initial.holdup(i * dz, (i + 1) * dz);
+			this.liquidFraction[i] = 1 - Math.min(1, Math.max(0, a));
+		}
+		for (let j = 0; j <= n; j++) {
+			this.gasVelocity[j] = cfg.initial.gasVelocityMS;
+			this.liquidVelocity[j] = cfg.initial.liquidVelocityMS;
+		}
+		this.applyBoundaryVelocities();
+		this.hydrostaticPressure();
+	}
+
+	/** Discrete hydrostatic pressure consistent with the face momentum balance at rest, integrated from the top. */
+	hydrostaticPressure(): void {
+		const { cfg, n, dz, psi } = this;
+		const g = cfg.gravityAxialMS2;
+		const rl = cfg.liquidDensityKgM3;
+		const rc = cfg.gasDensityKgM3;
+		const p = this.pressure;
+		const lf = this.liquidFraction;
+		// top cell: p_top − p = g (Δz/2) ρ_m, with ρ_g = ψ p (ideal) or constant
+		{
+			const a = 1 - lf[n - 1];
+			const h = 0.5 * dz;
+			p[n - 1] = rc === undefined ? (cfg.top.pressurePa - g * h * lf[n - 1] * rl) / (1 + g * h * a * psi) : cfg.top.pressurePa - g * h * (a * rc + lf[n - 1] * rl);
+		}
+		for (let i = n - 2; i >= 0; i--) {
+			const af = 1 - 0.5 * (lf[i] + lf[i + 1]);
+			const lff = 1 - af;
+			if (rc === undefined) {
+				const k = 0.5 * g * dz * af * psi;
+				p[i] = (p[i + 1] * (1 + k) - g * dz * lff * rl) / (1 - k);
+			} else {
+				p[i] = p[i + 1] - g * dz * (af * rc + lff * rl);
+			}
+		}
+		for (let i = 0; i < n; i++) this.gasDensity[i] = rc ?? psi * p[i];
+	}
+
+	private applyBoundaryVelocities(): void {
+		const { cfg, n } = this;
+		const ug = this.gasVelocity;
+		const ul = this.liquidVelocity;
+		const b = cfg.bottom;
+		if (b.kind === 'wall') {
+			ug[0] = 0;
+			ul[0] = 0;
+		} else {
+			ug[0] = b.gasVelocityMS ?? ug[1];
+			ul[0] = b.liquidVelocityMS ?? b.liquidVolumeFluxMS / Math.max(this.liquidFraction[0], 0.01);
+		}
+		if (cfg.top.kind === 'wall') {
+			ug[n] = 0;
+			ul[n] = 0;
+		} else if (cfg.top.liquid === 'closed') {
+			ul[n] = 0;
+		} else if (cfg.top.liquid === 'feed') {
+			ul[n] = -(cfg.top.liquidFeedMS ?? 0) / Math.max(this.liquidFraction[n - 1], 0.01);
+		}
+	}
+
+	/** Time step from the material Courant number, counting only phases present in a cell (positivity form). */
+	private chooseTimeStep(): number {
+		const { cfg, n, dz } = this;
+		const ug = this.gasVelocity;
+		const ul = this.liquidVelocity;
+		const lf = this.liquidFraction;
+		let speed = 0;
+		for (let i = 0; i < n; i++) {
+			if (1 - lf[i] > CFL_PRESENCE) {
+				const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
+				if (s > speed) speed = s;
+			}
+			if (lf[i] > CFL_PRESENCE) {
+				const s = (ul[i + 1] > 0 ? ul[i + 1] : 0) - (ul[i] < 0 ? ul[i] : 0);
+				if (s > speed) speed = s;
+			}
+		}
+		let dt = speed > 0 ? (cfg.cflNumber * dz) / speed : cfg.maxTimeStepS;
+		if (this.dtS > 0) dt = Math.min(dt, DT_GROWTH * this.dtS);
+		else dt = Math.min(dt, (cfg.cflNumber * dz) / Math.max(cfg.velocityScaleMS, 1e-6));
+		dt = Math.min(dt, cfg.maxTimeStepS);
+		const left = cfg.endTimeS - this.timeS;
+		if (dt >= left * (1 - 1e-9)) dt = left;
+		return dt;
+	}
+
+	/** C_D·Re of the configured law (switch kept out of the face loop's closure creation). */
+	private cdRe(re: number, holdup: number): number {
+		const law = this.cfg.drag;
+		if (law === 'none') return 0;
+		return dragCoefficientTimesReynolds({ law, reynolds: re, eotvos: this.eotvos, holdup });
+	}
+
+	/** Face value of a cell field for the donor flux, with the optional TVD limiter. */
+	private faceValue(f: Float64Array, donor: number, acceptor: number, far: number, courant: number, useField: boolean): number {
+		const vd = useField ? f[donor] : 1 - f[donor];
+		if (this.cfg.scheme === 'donor-cell' || acceptor < 0 || acceptor >= this.n || far < 0 || far >= this.n) return vd;
+		const va = useField ? f[acceptor] : 1 - f[acceptor];
+		const vf = useField ? f[far] : 1 - f[far];
+		const den = va - vd;
+		if (den === 0) return vd;
+		const r = (vd - vf) / den;
+		let phi: number;
+		if (this.cfg.scheme === 'van-leer') {
+			const ar = r < 0 ? -r : r;
+			phi = (r + ar) / (1 + ar);
+		} else phi = r <= 0 ? 0 : r < 1 ? r : 1;
+		const nu = courant < 1 ? courant : 1;
+		return vd + 0.5 * phi * (1 - nu) * den;
+	}
+
+	/** Advance one time step. Returns the status after the step. */
+	advance(): RunStatus {
+		if (this.status !== 'running') return this.status;
+		const { cfg, n, dz, psi } = this;
+		const dt = this.chooseTimeStep();
+		if (!(dt > DT_COLLAPSE_S)) {
+			if (this.timeS >= cfg.endTimeS) {
+				this.status = 'finished';
+				return this.status;
+			}
+			return this.fail(`time step collapsed to ${dt.toExponential(3)} s at t = ${this.timeS.toFixed(4)} s`);
+		}
+		const lf = this.liquidFraction;
+		const p = this.pressure;
+		const rg = this.gasDensity;
+		const ug = this.gasVelocity;
+		const ul = this.liquidVelocity;
+		const { ug0, dg, ul0, dl, wg, wl, hf, dpOld, solved } = this;
+		const rl = cfg.liquidDensityKgM3;
+		const mul = cfg.liquidViscosityPaS;
+		const mug = cfg.gasViscosityPaS;
+		const g = cfg.gravityAxialMS2;
+		const d = cfg.bubbleDiameterM;
+		const invD2 = 1 / (d * d);
+		const cp = cfg.interfacialPressureCoefficient;
+		const vmModel = cfg.virtualMass;
+		const vmConst = cfg.virtualMassCoefficient;
+		const blend = cfg.dropletBlend;
+		const dd = blend ? blend.dropDiameterM : 1;
+		const swarmPow = -2 * (this.swarmN - 1);
+		const frictionOn = cfg.wallFriction !== 'none';
+		const courantScale = dt / dz;
+
+		// 1. face momentum: new velocity = u0 − D·(pressure difference)/h
+		for (let j = 0; j <= n; j++) {
+			solved[j] = 0;
+			ug0[j] = 0;
+			dg[j] = 0;
+			ul0[j] = 0;
+			dl[j] = 0;
+		}
+		const top = cfg.top;
+		const jMax = top.kind === 'pressure' ? n : n - 1;
+		for (let j = 1; j <= jMax; j++) {
+			const below = j - 1;
+			const isTop = j === n;
+			const af = isTop ? 1 - lf[below] : 1 - 0.5 * (lf[below] + lf[j]);
+			const lff = 1 - af;
+			const ag = af > PRESENT_EPS ? af : PRESENT_EPS;
+			const alq = lff > PRESENT_EPS ? lff : PRESENT_EPS;
+			const rgf = isTop ? rg[below] : 0.5 * (rg[below] + rg[j]);
+			const ugj = ug[j];
+			const ulj = ul[j];
+			const ur = ugj - ulj;
+			const aur = ur < 0 ? -ur : ur;
+			// explicit upwind convection with the Courant number clipped at 1, so the would-be velocity of an
+			// absent (or very dilute) phase stays bounded instead of setting the time step
+			let up = ugj >= 0 ? ug[j - 1] : j < n ? ug[j + 1] : ugj;
+			let nu = (ugj < 0 ? -ugj : ugj) * courantScale;
+			const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
+			up = ulj >= 0 ? ul[j - 1] : j < n ? ul[j + 1] : ulj;
+			nu = (ulj < 0 ? -ulj : ulj) * courantScale;
+			const uls = ulj - (nu < 1 ? nu : 1) * (ulj - up);
+			// interfacial drag per volume, K (kg m⁻³ s⁻¹)
+			let k = 0;
+			let w = 0;
+			if (this.lawIndex >= 0) {
+				const re = (rl * aur * d) / mul;
+				let kb = 0.75 * ag * mul * this.cdRe(re, af) * invD2;
+				if (swarmPow !== 0) kb *= Math.exp(swarmPow * Math.log(alq > 1e-6 ? alq : 1e-6));
+				k = kb;
+				if (blend && af > blend.fromHoldup) {
+					const x = af >= blend.toHoldup ? 1 : (af - blend.fromHoldup) / (blend.toHoldup - blend.fromHoldup);
+					w = x * x * (3 - 2 * x);
+					const red = (rgf * aur * dd) / mug;
+					const cdRed = red <= 1000 ? 24 * (1 + 0.15 * (red > 0 ? Math.exp(0.687 * Math.log(red)) : 0)) : 0.44 * red;
+					const kd = (0.75 * alq * mug * cdRed) / (dd * dd);
+					k = (1 - w) * kb + w * kd;
+				}
+			}
+			// virtual mass: bubbles below the level, drops above it
+			let cvm = 0;
+			if (vmModel === 'constant') cvm = vmConst;
+			else if (vmModel === 'zuber') {
+				const ac = af < 0.9 ? af : 0.9;
+				cvm = (0.5 * (1 + 2 * ac)) / (1 - ac);
+			}
+			const v = cvm * ((1 - w) * ag * rl + w * alq * rgf);
+			// interfacial pressure term, explicit
+			const dadz = isTop ? 0 : (lf[below] - lf[j]) / dz;
+			const dpi = cp * rl * ur * ur;
+			const lam = frictionOn
+				? wallFrictionCoefficient({ model: cfg.wallFriction, liquidFraction: lff, liquidDensityKgM3: rl, liquidViscosityPaS: mul, liquidVelocityMS: ulj, diameterM: cfg.diameterM })
+				: 0;
+			const mg = ag * rgf;
+			const ml = alq * rl;
+			const c = k * dt;
+			const sg = ag * rgf * g - dpi * dadz;
+			const sl = alq * rl * g + dpi * dadz;
+			const rgRhs = (mg + v) * ugs - v * uls + dt * sg;
+			const rlRhs = (ml + v) * uls - v * ugs + dt * sl;
+			const b = v + c;
+			const a11 = mg + b;
+			hf[j] = isTop ? 0.5 * dz : dz;
+			dpOld[j] = isTop ? top.pressurePa - p[below] : p[j] - p[below];
+			solved[j] = 1;
+			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
+				// liquid velocity held at the outlet: the gas equation alone, with u_l' = 0
+				ug0[j] = rgRhs / a11;
+				dg[j] = (dt * ag) / a11;
+				ul0[j] = 0;
+				dl[j] = 0;
+				continue;
+			}
+			const mlf = ml + lam * dt;
+			const a22 = mlf + b;
+			// det = a11 a22 − b², written without the cancellation
+			const det = mg * a22 + b * mlf;
+			ug0[j] = (a22 * rgRhs + b * rlRhs) / det;
+			dg[j] = (dt * (a22 * ag + b * alq)) / det;
+			ul0[j] = (b * rgRhs + a11 * rlRhs) / det;
+			dl[j] = (dt * (b * ag + a11 * alq)) / det;
+		}
+
+		// 2. donor weights from the old-time velocity direction (PHYSICS §18: a predicted direction can block the level face)
+		for (let j = 1; j < n; j++) {
+			const cg = ug[j] * courantScale;
+			const cl = ul[j] * courantScale;
+			if (ug[j] >= 0) wg[j] = this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1];
+			else wg[j] = this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j];
+			if (ul[j] >= 0) wl[j] = this.faceValue(lf, j - 1, j, j - 2, cl, true);
+			else wl[j] = this.faceValue(lf, j, j - 1, j + 1, -cl, true);
+		}
+		const bottom = cfg.bottom;
+		if (bottom.kind === 'inflow') {
+			// prescribed fluxes: weight 1, "velocity" = the flux itself
+			wg[0] = 1;
+			ug0[0] = bottom.gasMassFluxKgM2S;
+			wl[0] = 1;
+			ul0[0] = bottom.liquidVolumeFluxMS;
+		} else {
+			wg[0] = 0;
+			wl[0] = 0;
+		}
+		hf[0] = dz;
+		if (top.kind === 'pressure') {
+			wg[n] = ug[n] >= 0 ? (1 - lf[n - 1]) * rg[n - 1] : this.outsideGasDensity;
+			if (top.liquid === 'open') wl[n] = ul[n] >= 0 ? lf[n - 1] : 0;
+			else if (top.liquid === 'feed') {
+				wl[n] = 1;
+				ul0[n] = -(top.liquidFeedMS ?? 0);
+				dl[n] = 0;
+			} else wl[n] = 0;
+		} else {
+			wg[n] = 0;
+			wl[n] = 0;
+			hf[n] = dz;
+		}
+
+		// 3. pressure: α ψ Δz/(ρ_g Δt) δp_i + Σ_faces (gas volume flux + liquid volume flux) = 0
+		const lo = this.triLo;
+		const di = this.triDi;
+		const upr = this.triUp;
+		const rhs = this.triRhs;
+		for (let i = 0; i < n; i++) {
+			const inv = rg[i] > 0 ? 1 / rg[i] : 0;
+			const jt = i + 1;
+			const jb = i;
+			const eTop = (wg[jt] * dg[jt] * inv + wl[jt] * dl[jt]) / hf[jt];
+			const eBot = (wg[jb] * dg[jb] * inv + wl[jb] * dl[jb]) / hf[jb];
+			const fTop = wg[jt] * (ug0[jt] - (dg[jt] * dpOld[jt]) / hf[jt]) * inv + wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
+			const fBot = wg[jb] * (ug0[jb] - (dg[jb] * dpOld[jb]) / hf[jb]) * inv + wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
+			const ci = rg[i] > 0 ? ((1 - lf[i]) * psi * dz) / (rg[i] * dt) : 0;
+			di[i] = ci + eTop + eBot;
+			upr[i] = i < n - 1 ? -eTop : 0;
+			lo[i] = i > 0 ? -eBot : 0;
+			rhs[i] = -(fTop - fBot);
+		}
+		if (top.kind === 'wall') {
+			// closed tube of incompressible phases: pin the pressure at the top wall (the system is otherwise singular)
+			const a = 1 - lf[n - 1];
+			const target = top.pressurePa - g * 0.5 * dz * (a * (cfg.gasDensityKgM3 ?? rg[n - 1]) + lf[n - 1] * rl);
+			di[n - 1] = 1;
+			lo[n - 1] = 0;
+			rhs[n - 1] = target - p[n - 1];
+		}
+		// Thomas algorithm
+		const cc = this.triC;
+		const x = this.dp;
+		cc[0] = upr[0] / di[0];
+		x[0] = rhs[0] / di[0];
+		for (let i = 1; i < n; i++) {
+			const m = di[i] - lo[i] * cc[i - 1];
+			cc[i] = upr[i] / m;
+			x[i] = (rhs[i] - lo[i] * x[i - 1]) / m;
+		}
+		for (let i = n - 2; i >= 0; i--) x[i] -= cc[i] * x[i + 1];
+
+		// 4. new pressure, face velocities and fluxes
+		for (let i = 0; i < n; i++) p[i] += x[i];
+		const gf = this.gasFlux;
+		const lfx = this.liquidFlux;
+		for (let j = 1; j <= n; j++) {
+			if (!solved[j]) {
+				gf[j] = 0;
+				lfx[j] = wl[j] * ul0[j];
+				continue;
+			}
+			const above = j < n ? x[j] : 0;
+			const grad = (dpOld[j] + above - x[j - 1]) / hf[j];
+			ug[j] = ug0[j] - dg[j] * grad;
+			ul[j] = ul0[j] - dl[j] * grad;
+			gf[j] = wg[j] * ug[j];
+			lfx[j] = wl[j] * ul[j];
+		}
+		if (top.kind === 'pressure' && top.liquid === 'feed') {
+			lfx[n] = -(top.liquidFeedMS ?? 0);
+		}
+		gf[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S : 0;
+		lfx[0] = bottom.kind === 'inflow' ? bottom.liquidVolumeFluxMS : 0;
+
+		// 5. liquid fraction, conservative; over-drained cells repaired from the neighbour that took the liquid
+		const old = this.lfOld;
+		const r = dt / dz;
+		for (let i = 0; i < n; i++) {
+			old[i] = lf[i];
+			lf[i] = lf[i] - r * (lfx[i + 1] - lfx[i]);
+		}
+		this.repair(lf, lfx, gf);
+
+		// 6. gas density from the new pressure, boundary velocities, diagnostics
+		const rc = cfg.gasDensityKgM3;
+		let maxRate = 0;
+		for (let i = 0; i < n; i++) {
+			rg[i] = rc ?? psi * p[i];
+			const rate = Math.abs(lf[i] - old[i]);
+			if (rate > maxRate) maxRate = rate;
+		}
+		this.lastMaxHoldupRate = maxRate / dt;
+		this.applyBoundaryVelocities();
+		this.diag.gasInKgM2S = gf[0] + (gf[n] < 0 ? -gf[n] : 0);
+		this.diag.gasOutKgM2S = gf[n] > 0 ? gf[n] : 0;
+		this.diag.liquidInMS = lfx[0] - (lfx[n] < 0 ? lfx[n] : 0);
+		this.diag.liquidOutMS = lfx[n] > 0 ? lfx[n] : 0;
+		this.timeS += dt;
+		this.dtS = dt;
+		this.stepCount++;
+		const bad = this.check();
+		if (bad) return this.fail(bad);
+		if (this.timeS >= cfg.endTimeS) this.status = 'finished';
+		return this.status;
+	}
+
+	/**
+	 * Conservative repair (PHYSICS §18.1): the old-time donor choice can over-drain a cell when a velocity
+	 * reverses within the step. A cell left with negative liquid takes the deficit back from the neighbour(s)
+	 * its liquid flowed to; a cell left with negative gas (liquid above one) takes gas back from the
+	 * neighbour(s) its gas flowed to, i.e. hands them the excess liquid. Liquid volume is conserved exactly.
+	 */
+	private repair(lf: Float64Array, liquidFlux: Float64Array, gasFlux: Float64Array): void {
+		const n = this.n;
+		for (let pass = 0; pass < 16; pass++) {
+			let any = false;
+			for (let i = 0; i < n; i++) {
+				const v = lf[i];
+				if (v < 0) {
+					const toTop = i < n - 1 && liquidFlux[i + 1] > 0 ? liquidFlux[i + 1] : 0;
+					const toBot = i > 0 && liquidFlux[i] < 0 ? -liquidFlux[i] : 0;
+					const tot = toTop + toBot;
+					if (tot > 0) {
+						any = true;
+						if (toTop > 0) lf[i + 1] += (v * toTop) / tot;
+						if (toBot > 0) lf[i - 1] += (v * toBot) / tot;
+						lf[i] = 0;
+					}
+				} else if (v > 1) {
+					const toTop = i < n - 1 && gasFlux[i + 1] > 0 ? gasFlux[i + 1] : 0;
+					const toBot = i > 0 && gasFlux[i] < 0 ? -gasFlux[i] : 0;
+					const tot = toTop + toBot;
+					if (tot > 0) {
+						any = true;
+						const ex = v - 1;
+						if (toTop > 0) lf[i + 1] += (ex * toTop) / tot;
+						if (toBot > 0) lf[i - 1] += (ex * toBot) / tot;
+						lf[i] = 1;
+					}
+				}
+			}
+			if (!any) break;
+		}
+	}
+
+	/** First failing cell, as a message naming cell, variable and time; null when all is well. */
+	private check(): string | null {
+		const { n } = this;
+		const lf = this.liquidFraction;
+		const p = this.pressure;
+		const t = this.timeS.toFixed(4);
+		for (let i = 0; i < n; i++) {
+			const z = this.zCentre[i].toFixed(3);
+			const a = 1 - lf[i];
+			if (!Number.isFinite(a)) return `holdup is not a number in cell ${i} (z = ${z} m) at t = ${t} s`;
+			if (!Number.isFinite(p[i])) return `pressure is not a number in cell ${i} (z = ${z} m) at t = ${t} s`;
+			if (a < -1e-9 || a > 1 + 1e-9) return `holdup ${a.toPrecision(6)} is outside [0, 1] in cell ${i} (z = ${z} m) at t = ${t} s`;
+			if (!(p[i] > 0)) return `pressure ${p[i].toPrecision(6)} Pa is not positive in cell ${i} (z = ${z} m) at t = ${t} s`;
+		}
+		for (let j = 0; j <= n; j++) {
+			if (!Number.isFinite(this.gasVelocity[j]) || !Number.isFinite(this.liquidVelocity[j])) {
+				return `${Number.isFinite(this.gasVelocity[j]) ? 'liquid' : 'gas'} velocity is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${t} s`;
+			}
+		}
+		return null;
+	}
+
+	private fail(message: string): RunStatus {
+		this.status = 'failed';
+		this.message = message;
+		return this.status;
+	}
+}
