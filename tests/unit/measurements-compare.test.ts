@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { defaultCase } from '../../solver/case.js';
-import { errorMeasures, interpolateLinear, operatingPointMatches, operatingPointOfCase, rankByRmse } from '../../src/lib/measurements/index.js';
+import { errorMeasures, interpolateLinear, operatingPointMatches, operatingPointOfCase, profileForMeasurement, rankByRmse } from '../../src/lib/measurements/index.js';
 
 describe('holding a run against a measurement', () => {
 	it('interpolates linearly and holds the end values outside the profile', () => {
@@ -64,5 +64,19 @@ describe('holding a run against a measurement', () => {
 	it('takes the operating point of a case from its sparging and fluids', () => {
 		const c = defaultCase();
 		expect(operatingPointOfCase(c)).toEqual({ superficialGasVelocityMS: c.sparging.superficialGasVelocityMS, temperatureK: c.fluids.temperatureK, pressurePa: c.fluids.topPressurePa });
+	});
+
+	it('picks the run field for each kind and scales the radius to r/R', () => {
+		const snapshot = { x: new Float64Array([0.025, 0.075]), fields: { holdup: new Float64Array([0.2, 0.1]), liquidVelocity: new Float64Array([0.3, -0.1]), pressure: new Float64Array([1.1e5, 1.05e5]) } };
+		const radial = defaultCase('cross-section');
+		radial.geometry.diameterM = 0.2;
+		const v = profileForMeasurement({ kind: 'liquid-velocity-radial', caseDoc: radial, snapshot });
+		expect(v!.x[0]).toBeCloseTo(0.25, 15);
+		expect(v!.x[1]).toBeCloseTo(0.75, 15);
+		expect(Array.from(v!.y)).toEqual([0.3, -0.1]);
+		const height = defaultCase('height-profile');
+		expect(Array.from(profileForMeasurement({ kind: 'pressure-height', caseDoc: height, snapshot })!.y)).toEqual([1.1e5, 1.05e5]);
+		expect(profileForMeasurement({ kind: 'holdup-radial', caseDoc: height, snapshot })).toBeNull();
+		expect(profileForMeasurement({ kind: 'dissolved-oxygen', caseDoc: height, snapshot })).toBeNull();
 	});
 });

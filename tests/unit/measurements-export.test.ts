@@ -20,8 +20,8 @@ describe('CSV exports', () => {
 	});
 
 	it('writes profiles with the position first and fields in name order', () => {
-		const csv = profilesToCsv({ x: new Float64Array([0.05, 0.15]), fields: { pressurePa: new Float64Array([101000, 100000]), alphaGas: new Float64Array([0.1, NaN]) }, positionLabel: 'height' });
-		expect(csv).toBe('height [m],alphaGas [-],pressurePa [Pa]\r\n0.05,0.1,101000\r\n0.15,,100000');
+		const csv = profilesToCsv({ x: new Float64Array([0.05, 0.15]), fields: { pressure: new Float64Array([101000, 100000]), holdup: new Float64Array([0.1, NaN]) }, positionLabel: 'height' });
+		expect(csv).toBe('height [m],holdup [-],pressure [Pa]\r\n0.05,0.1,101000\r\n0.15,,100000');
 	});
 
 	it('writes a residual history with an empty cell where a residual is absent', () => {

@@ -4,7 +4,7 @@
  * SI throughout; profiles and measurements share the x of the measurement kind (height in m,
  * r/R, or time in s).
  */
-import type { OperatingPoint } from './kinds.js';
+import type { MeasurementKind, OperatingPoint } from './kinds.js';
 
 export interface Series {
 	x: ArrayLike<number>;
@@ -159,4 +159,35 @@ export function rankByRmse<T extends { profile: Series | null }>(opts: { runs: T
 		return ra === rb ? a.i - b.i : ra - rb;
 	});
 	return scored.map(({ i: _i, ...rest }) => rest as unknown as T & { measures: ErrorMeasures | null });
+}
+
+/** Which run field and which case kind a measurement kind is compared with. */
+export const profileFieldOfKind = {
+	'holdup-height': { caseKind: 'height-profile', field: 'holdup' },
+	'pressure-height': { caseKind: 'height-profile', field: 'pressure' },
+	'holdup-radial': { caseKind: 'cross-section', field: 'holdup' },
+	'liquid-velocity-radial': { caseKind: 'cross-section', field: 'liquidVelocity' },
+	'dissolved-oxygen': null
+} as const satisfies Record<MeasurementKind, { caseKind: 'height-profile' | 'cross-section'; field: string } | null>;
+
+/**
+ * The run profile a measurement is held against, on the measurement's x: height above the sparger
+ * (m) for the height kinds, r/R (the snapshot's radius divided by D/2) for the radial kinds. Null
+ * when the kinds do not go together (a radial measurement and a height-profile run, a
+ * dissolved-oxygen series) or the snapshot lacks the field.
+ */
+export function profileForMeasurement(opts: {
+	kind: MeasurementKind;
+	caseDoc: { kind: string; geometry: { diameterM: number } };
+	snapshot: { x: ArrayLike<number>; fields: Record<string, ArrayLike<number>> };
+}): Series | null {
+	const m = profileFieldOfKind[opts.kind];
+	if (!m || opts.caseDoc.kind !== m.caseKind) return null;
+	const y = opts.snapshot.fields[m.field];
+	if (!y || y.length !== opts.snapshot.x.length || y.length === 0) return null;
+	if (m.caseKind === 'cross-section') {
+		const radiusM = opts.caseDoc.geometry.diameterM / 2;
+		return { x: Array.from(opts.snapshot.x, (r) => r / radiusM), y };
+	}
+	return { x: opts.snapshot.x, y };
 }

@@ -4,7 +4,8 @@
  * list of every problem found, each naming the row and the column.
  *
  * File rules:
- * - at most {@link MAX_FILE_BYTES} bytes (1 MiB) and {@link MAX_DATA_ROWS} data rows (20 000: a
+ * - at most {@link MAX_FILE_BYTES} bytes (400 KiB, inside the app server's default 512 kB request
+ *   limit with room for the form fields) and {@link MAX_DATA_ROWS} data rows (20 000: a
  *   dissolved-oxygen logger at one reading a second fills five and a half hours);
  * - an optional header row (a first row whose cells are all non-numeric); blank lines are skipped;
  * - tab, semicolon or comma as the delimiter (in that order of preference); a point as the decimal
@@ -14,7 +15,7 @@
 import Papa from 'papaparse';
 import { findUnit, kindSpecs, toSi, type ColumnSpec, type MeasurementKind, type Unit } from './kinds.js';
 
-export const MAX_FILE_BYTES = 1_048_576;
+export const MAX_FILE_BYTES = 409_600;
 export const MAX_DATA_ROWS = 20_000;
 /** Beyond this many problems the list ends with a count of the rest: nobody reads 20 000 lines. */
 const MAX_LISTED_ISSUES = 50;

@@ -36,12 +36,12 @@ export function columnsToCsv(opts: { columns: CsvColumn[] }): string {
 
 /** Units of the fields a snapshot may hold, for the header; unknown names are written with `?`. */
 export const fieldUnits: Record<string, string> = {
-	alphaGas: '1',
-	alphaLiquid: '1',
-	gasVelocityMS: 'm/s',
-	liquidVelocityMS: 'm/s',
-	pressurePa: 'Pa',
-	gasDensityKgM3: 'kg/m³'
+	holdup: '1',
+	gasVelocity: 'm/s',
+	liquidVelocity: 'm/s',
+	slip: 'm/s',
+	pressure: 'Pa',
+	gasDensity: 'kg/m³'
 };
 
 /**
