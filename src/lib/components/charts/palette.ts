@@ -9,7 +9,9 @@ export const colours = {
 	gasLight: '#ffb320',
 	structure: '#334155',
 	structureLight: '#94a3b8',
-	band: 'rgba(100, 116, 139, 0.18)'
+	band: 'rgba(100, 116, 139, 0.18)',
+	/** correlation reference lines: near-black, dashed, never a run's colour */
+	reference: '#0f172a'
 };
 
 export interface Stroke {
