@@ -35,7 +35,7 @@ import { tomiyamaLiftCoefficient } from '../closures/lift.js';
 import { wallLubricationForce } from '../closures/wall-lubrication.js';
 import { dispersionDiffusivityM2S, radialDispersionForce } from '../closures/dispersion.js';
 import { logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS, turbulentKineticEnergyM2S2 } from '../closures/turbulence.js';
-import { akitaYoshidaSauterDiameter } from '../correlations/bubble-size.js';
+import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
 import { GRAVITY_MS2, idealGasDensity } from '../fluids.js';
 import { createRadialGrid, sectionAverage, sectionAverageProduct, type RadialGrid } from './grid.js';
 import { solveAxialMomentum } from './momentum.js';
@@ -79,19 +79,12 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 	const rl = c.fluids.liquid.densityKgM3;
 	const mul = c.fluids.liquid.viscosityPaS;
 	const sigma = c.fluids.liquid.surfaceTensionNM;
-	// the section sits near the top: gas at the top pressure (a fully developed slice has no height)
-	const rg = idealGasDensity({ pressurePa: c.fluids.topPressurePa, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	// gas conditions of the section: those at the sparger with the column at rest, the basis on which the
+	// analyst quotes U_g (a 'normal' basis is converted by mass flux), the same as the height model's inlet
+	const rg = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const ugs = c.sparging.gasVelocityBasis === 'sparger' ? c.sparging.superficialGasVelocityMS : gasMassFlux(c) / rg;
 	const dCol = c.geometry.diameterM;
-	const d =
-		c.bubbles.sizing === 'akita-yoshida'
-			? akitaYoshidaSauterDiameter({
-					diameterM: dCol,
-					superficialGasVelocityMS: Math.max(c.sparging.superficialGasVelocityMS, 1e-6),
-					liquidDensityKgM3: rl,
-					liquidViscosityPaS: mul,
-					surfaceTensionNM: sigma
-				})
-			: c.bubbles.diameterM;
+	const d = bubbleDiameter(c);
 	const ut = terminalVelocity({ law: c.closures.drag, diameterM: d, liquidDensityKgM3: rl, gasDensityKgM3: rg, liquidViscosityPaS: mul, surfaceTensionNM: sigma, gravityMS2: g });
 	return {
 		radiusM: dCol / 2,
@@ -105,7 +98,7 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 		eotvos: eotvosNumber({ diameterM: d, liquidDensityKgM3: rl, gasDensityKgM3: rg, surfaceTensionNM: sigma, gravityMS2: g }),
 		terminalVelocityMS: ut,
 		terminalReynolds: (rl * ut * d) / mul,
-		superficialGasVelocityMS: c.sparging.superficialGasVelocityMS,
+		superficialGasVelocityMS: ugs,
 		superficialLiquidVelocityMS: c.sparging.superficialLiquidVelocityMS,
 		gravityMS2: g,
 		referenceTimeS: dCol / 2 / ut

@@ -5,6 +5,7 @@ import type { Results, Simulation } from '../../solver/types.js';
 import {
 	FLUX_RELAXATION_HEIGHT_DIAMETERS,
 	createCrossSectionSimulation,
+	crossSectionParameters,
 	createRadialGrid,
 	solveAxialMomentum,
 	transportHoldup
@@ -336,6 +337,18 @@ describe('cross-section model, conservation and restart', () => {
 		const d = sim.results().design;
 		expect(Object.keys(d).sort()).toEqual(['axialPressureGradientPaM', 'centrelineLiquidVelocityMS', 'peakLocation', 'reversalRadiusRatio', 'sectionHoldup']);
 		expect(d.axialPressureGradientPaM.unit).toBe('Pa/m');
+	});
+
+	it('takes U_g at sparger conditions, converting a normal-conditions flow by the ideal-gas law', () => {
+		const sp = crossSectionParameters(crossCase());
+		expect(sp.superficialGasVelocityMS).toBe(0.05);
+		// 0.05 m/s at 0 °C and 1 atm becomes 0.05 · (101325/p_sparger) · (293.15/273.15) at the sparger [D]
+		const c = crossCase({ sparging: { gasVelocityBasis: 'normal' } });
+		const pSparger = c.fluids.topPressurePa + 998.2 * g * c.geometry.clearLiquidLevelM;
+		const n = crossSectionParameters(c);
+		expect(n.superficialGasVelocityMS / (0.05 * (101325 / pSparger) * (293.15 / 273.15)) - 1).toBeCloseTo(0, 12);
+		// gas density at the sparger, p M/(R T)
+		expect(n.gasDensityKgM3).toBeCloseTo((pSparger * 0.02896) / (8.314462618 * 293.15), 10);
 	});
 
 	it('fails with the cell, the variable and the time when the holdup leaves the bubbly range', () => {
