@@ -32,6 +32,9 @@ import type { RunStatus } from '../types.js';
 const PRESENT_EPS = 1e-12;
 /** A phase limits the time step only in cells where its fraction exceeds this (PHYSICS §18.1: dilute drops). */
 const CFL_PRESENCE = 1e-4;
+/** A liquid donor below this fraction, facing a cell fuller than SWITCH_FULL, hands the donation to that cell. */
+const SWITCH_DONOR = 0.02;
+const SWITCH_FULL = 0.95;
 /** Largest growth of the time step from one step to the next. */
 const DT_GROWTH = 1.2;
 /** A time step below this (s) with time left to run is reported as a collapse. */
@@ -343,11 +346,17 @@ export class HeightModel {
 			const lam = frictionOn
 				? wallFrictionCoefficient({ model: cfg.wallFriction, liquidFraction: lff, liquidDensityKgM3: rl, liquidViscosityPaS: mul, liquidVelocityMS: ulj, diameterM: cfg.diameterM })
 				: 0;
+			// Δp_i ∂α/∂z = C_p ρ_l |u_r| u_r ∂α/∂z acts like a drag with coefficient C_p ρ_l |u_r| ∂α/∂z·sgn(u_r).
+			// It is taken implicitly together with the drag (|u_r| old, u_r new) whenever the sum stays a drag:
+			// explicit, it flips the slip between two values at a sharp level and destabilises steep bubble
+			// fronts on fine grids. Only a net negative coupling is left explicit.
+			const kip = cp * rl * ur * dadz;
+			const implicitIp = k + kip > 0;
 			const mg = ag * rgf;
 			const ml = alq * rl;
-			const c = k * dt;
-			const sg = ag * rgf * g - dpi * dadz;
-			const sl = alq * rl * g + dpi * dadz;
+			const c = (implicitIp ? k + kip : k) * dt;
+			const sg = ag * rgf * g - (implicitIp ? 0 : dpi * dadz);
+			const sl = alq * rl * g + (implicitIp ? 0 : dpi * dadz);
 			const rgRhs = (mg + v) * ugs - v * uls + dt * sg;
 			const rlRhs = (ml + v) * uls - v * ugs + dt * sl;
 			const b = v + c;
@@ -379,7 +388,14 @@ export class HeightModel {
 			const cl = ul[j] * courantScale;
 			if (ug[j] >= 0) wg[j] = this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1];
 			else wg[j] = this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j];
-			if (ul[j] >= 0) wl[j] = this.faceValue(lf, j - 1, j, j - 2, cl, true);
+			// liquid whose upwind cell is (nearly) empty while the other side is (nearly) full takes the other side
+			// as donor: at a level crossing a face the bubbles' velocity points up and the drops' velocity down, and
+			// with neither side donating, the filling cell must push its last gas out at u = j/α (unbounded) or
+			// the incompressible liquid below is cut from the pressure above (a singular matrix)
+			const dn = ul[j] >= 0 ? j - 1 : j;
+			const ac = ul[j] >= 0 ? j : j - 1;
+			if (lf[ac] > SWITCH_FULL && lf[dn] < SWITCH_DONOR) wl[j] = lf[ac];
+			else if (ul[j] >= 0) wl[j] = this.faceValue(lf, j - 1, j, j - 2, cl, true);
 			else wl[j] = this.faceValue(lf, j, j - 1, j + 1, -cl, true);
 		}
 		const bottom = cfg.bottom;
