@@ -48,15 +48,24 @@ export interface TomiyamaLiftInput {
 	gravityMS2?: number;
 }
 
-/** Tomiyama et al. (2002) lift coefficient with the Wellek et al. d_H. */
-export function tomiyamaLiftCoefficient(o: TomiyamaLiftInput): number {
+/** Eötvös number of the bubble width, Eo_d = g Δρ d_H²/σ, with d_H from Wellek et al. (1966). */
+export function tomiyamaWidthEotvos(o: Omit<TomiyamaLiftInput, 'reynolds'>): number {
 	const eo = eotvosNumber(o);
 	const dH = horizontalDiameterM({ diameterM: o.diameterM, eotvos: eo });
-	const eoH = eotvosNumber({ ...o, diameterM: dH });
-	if (eoH > 10.7) return -0.27;
-	const f = tomiyamaLiftPolynomial(eoH);
-	if (eoH < 4) return Math.min(0.288 * Math.tanh(0.121 * Math.abs(o.reynolds)), f);
+	return eo * (dH / o.diameterM) ** 2;
+}
+
+/** Tomiyama's C_L from Eo_d and Re (split out so a solver can compute Eo_d once per bubble size). */
+export function tomiyamaLiftFromWidthEotvos(eotvosH: number, reynolds: number): number {
+	if (eotvosH > 10.7) return -0.27;
+	const f = tomiyamaLiftPolynomial(eotvosH);
+	if (eotvosH < 4) return Math.min(0.288 * Math.tanh(0.121 * Math.abs(reynolds)), f);
 	return f;
+}
+
+/** Tomiyama et al. (2002) lift coefficient with the Wellek et al. d_H. */
+export function tomiyamaLiftCoefficient(o: TomiyamaLiftInput): number {
+	return tomiyamaLiftFromWidthEotvos(tomiyamaWidthEotvos(o), o.reynolds);
 }
 
 /**

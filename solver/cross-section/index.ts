@@ -31,7 +31,7 @@ import type { Checkpoint, DesignNumber, Residuals, Results, RunStatus, Simulatio
 import { dragCoefficient, eotvosNumber, terminalVelocity } from '../closures/drag.js';
 import { swarmDragFactor } from '../closures/swarm.js';
 import { virtualMassCoefficient } from '../closures/virtual-mass.js';
-import { tomiyamaLiftCoefficient } from '../closures/lift.js';
+import { tomiyamaLiftFromWidthEotvos, tomiyamaWidthEotvos } from '../closures/lift.js';
 import { wallLubricationForce } from '../closures/wall-lubrication.js';
 import { dispersionDiffusivityM2S, radialDispersionForce } from '../closures/dispersion.js';
 import { logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS, turbulentKineticEnergyM2S2 } from '../closures/turbulence.js';
@@ -175,17 +175,11 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		return (0.75 * rl * cd * s) / d;
 	}
 
+	const widthEotvos = tomiyamaWidthEotvos({ diameterM: d, liquidDensityKgM3: rl, gasDensityKgM3: p.gasDensityKgM3, surfaceTensionNM: p.surfaceTensionNM, gravityMS2: p.gravityMS2 });
 	function liftCoefficient(s: number): number {
 		if (cl.lift === 'none') return 0;
 		if (cl.lift === 'constant') return cl.liftCoefficient;
-		return tomiyamaLiftCoefficient({
-			diameterM: d,
-			reynolds: (rl * Math.abs(s) * d) / mul,
-			liquidDensityKgM3: rl,
-			gasDensityKgM3: p.gasDensityKgM3,
-			surfaceTensionNM: p.surfaceTensionNM,
-			gravityMS2: p.gravityMS2
-		});
+		return tomiyamaLiftFromWidthEotvos(widthEotvos, (rl * Math.abs(s) * d) / mul);
 	}
 
 	function wallForcePerGas(s: number, y: number): number {
