@@ -512,7 +512,7 @@ export class HeightModel {
 		this.timeS += dt;
 		this.dtS = dt;
 		this.stepCount++;
-		const bad = this.check();
+		const bad = this.check() ?? this.overflow();
 		if (bad) return this.fail(bad);
 		if (this.timeS >= cfg.endTimeS) this.status = 'finished';
 		return this.status;
@@ -577,6 +577,15 @@ export class HeightModel {
 			}
 		}
 		return null;
+	}
+
+	/** A batch column whose aerated level reaches the closed top cannot reach a steady state: say so. */
+	private overflow(): string | null {
+		const top = this.cfg.top;
+		if (top.kind !== 'pressure' || top.liquid !== 'closed') return null;
+		const i = this.n - 1;
+		if (this.liquidFraction[i] <= 0.5) return null;
+		return `holdup ${(1 - this.liquidFraction[i]).toFixed(3)} in the top cell ${i} (z = ${this.zCentre[i].toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s: the aerated level reached the top outlet; the column is too short for this gas rate and clear-liquid level`;
 	}
 
 	private fail(message: string): RunStatus {

@@ -1,0 +1,63 @@
+/**
+ * Ransom's water faucet (V. H. Ransom 1987, Multiphase Sci. Technol. 3; setup PHYSICS §11.1) against its
+ * analytical solution for massless gas without interfacial friction:
+ *   x ≤ x_f = v₀t + g t²/2:  α_g = 1 − α_l0 v₀ / √(v₀² + 2 g x);  x > x_f: α_g = 0.2.
+ */
+import { describe, expect, it } from 'vitest';
+import { defaultCase } from '../../solver/case.js';
+import { createHeightSimulationFromConfig } from '../../solver/height/simulation.js';
+import { faucetConfig } from '../../solver/height/problems.js';
+
+const g = 9.81;
+function exactHoldup(x: number, t: number): number {
+	const xf = 10 * t + 0.5 * g * t * t;
+	return x <= xf ? 1 - (0.8 * 10) / Math.sqrt(100 + 2 * g * x) : 0.2;
+}
+
+/** Mean absolute error of the cell holdups against exact cell averages (midpoint rule, 400 points per cell). */
+function l1Error(cells: number, t: number): number {
+	const sim = createHeightSimulationFromConfig(defaultCase(), faucetConfig({ cells, endTimeS: t }));
+	while (sim.state.status === 'running') sim.step();
+	expect(sim.state.status).toBe('finished');
+	expect(sim.state.timeS).toBe(t);
+	const dz = 12 / cells;
+	let sum = 0;
+	for (let i = 0; i < cells; i++) {
+		let avg = 0;
+		for (let q = 0; q < 400; q++) avg += exactHoldup((i + (q + 0.5) / 400) * dz, t);
+		sum += Math.abs(1 - sim.model.liquidFraction[i] - avg / 400);
+	}
+	return sum / cells;
+}
+
+describe("Ransom's water faucet", () => {
+	it('matches the analytical holdup profile at t = 0.5 s with an L1 error that falls at the order of a first-order scheme', () => {
+		const e = [48, 96, 192].map((n) => l1Error(n, 0.5));
+		const orders = [Math.log2(e[0] / e[1]), Math.log2(e[1] / e[2])];
+		console.info(`faucet t = 0.5 s: L1 = ${e.map((v) => v.toExponential(3)).join(', ')} (48, 96, 192 cells); observed orders ${orders.map((p) => p.toFixed(2)).join(', ')}`);
+		// PHYSICS §15 #24 [D]: first-order upwind, 96 cells, L1 ≈ 1.4e-2 ±30 %
+		expect(e[1]).toBeGreaterThan(1.4e-2 * 0.7);
+		expect(e[1]).toBeLessThan(1.4e-2 * 1.3);
+		// first-order upwind: order 1/2 at the void discontinuity (linearly degenerate wave), 1 in the smooth part;
+		// on these grids the mix lies between the two
+		for (const p of orders) {
+			expect(p).toBeGreaterThan(0.4);
+			expect(p).toBeLessThan(1.0);
+		}
+	});
+
+	it('converges at first order to the steady analytical profile (t = 2 s)', () => {
+		const e = [48, 96, 192].map((n) => l1Error(n, 2));
+		const orders = [Math.log2(e[0] / e[1]), Math.log2(e[1] / e[2])];
+		console.info(`faucet t = 2 s: L1 = ${e.map((v) => v.toExponential(3)).join(', ')}; observed orders ${orders.map((p) => p.toFixed(2)).join(', ')}`);
+		// PHYSICS §11.1 [D]: steady order ≈ 1.0 for first-order upwind (reduced model: L1 = 2.73e-3 at 48 cells)
+		for (const p of orders) expect(Math.abs(p - 1)).toBeLessThan(0.25);
+	});
+
+	it('keeps the inlet holdup downstream of the front at t = 0.5 s, where the exact value is 0.2', () => {
+		// PHYSICS §15 #21: at x = 12 m, t = 0.5 s the front (6.226 m) has not arrived: α_g = 0.2
+		const sim = createHeightSimulationFromConfig(defaultCase(), faucetConfig({ cells: 96, endTimeS: 0.5 }));
+		while (sim.state.status === 'running') sim.step();
+		expect(Math.abs(1 - sim.model.liquidFraction[95] - 0.2)).toBeLessThan(5e-3);
+	});
+});
