@@ -25,6 +25,13 @@
  * Time stepping: holdup transport and both momentum equations implicit; closures (viscosity,
  * forces, the drag linearisation) lagged from the old step. Δt from a Courant number on the radial
  * drift velocity, capped at cfl·R/u_t.
+ *
+ * Residuals (dimensionless, after each step; ⟨·⟩ the area average over the section):
+ *   gasMassImbalance   |⟨α u_g⟩ − U_g| / U_g
+ *   liquidFluxError    |⟨α_l u_l⟩ − U_l| / max(|U_l|, U_g, 1 mm/s); round-off by construction
+ *   holdupChangeRate   max |∂α/∂t| × 1 s (as in the height model)
+ *   momentumImbalance  Σ V |α_l ρ_l ∂u_l/∂t + α ρ_g ∂u_g/∂t| / Σ V (|α_l (G − ρ_l g)| + |α (G − ρ_g g)|)
+ * Steady: all four at or below the case's steady tolerance throughout 2 R/u_t of simulated time.
  */
 import type { CaseDocument } from '../case.js';
 import type { Checkpoint, DesignNumber, Residuals, Results, RunStatus, Simulation, SimulationState, Snapshot, StepStatus } from '../types.js';
@@ -46,7 +53,7 @@ export type { RadialGrid } from './grid.js';
 export { solveAxialMomentum } from './momentum.js';
 export { transportHoldup } from './transport.js';
 
-export const CROSS_SECTION_MODEL_VERSION = 'cross-section/1';
+export const CROSS_SECTION_MODEL_VERSION = 'cross-section-1.0.0';
 /** Height of the column slice that exchanges the gas-flux imbalance, in column diameters. */
 export const FLUX_RELAXATION_HEIGHT_DIAMETERS = 1;
 /** Holdup above which the bubbly closures are meaningless: a run that reaches it fails. */
@@ -70,7 +77,7 @@ export interface CrossSectionParameters {
 	superficialGasVelocityMS: number;
 	superficialLiquidVelocityMS: number;
 	gravityMS2: number;
-	/** R/u_t: the time a bubble takes to rise one radius; scales the change-rate residual and the steady window */
+	/** R/u_t: the time a bubble takes to rise one radius; sets the steady window and the largest time step */
 	referenceTimeS: number;
 }
 
@@ -340,7 +347,8 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		let ql = 0;
 		for (let i = 0; i < n; i++) ql += (1 - alphaN[i]) * ulN[i] * grid.volumes[i];
 		res.liquidFluxError = Math.abs(ql / grid.totalVolume - p.superficialLiquidVelocityMS) / Math.max(Math.abs(p.superficialLiquidVelocityMS), ug0, 1e-3);
-		res.holdupChangeRate = abar > 0 ? (maxDa / abar) * (p.referenceTimeS / dt) : 0;
+		// as in the height model: the largest local |∂α/∂t| times 1 s
+		res.holdupChangeRate = maxDa / dt;
 		res.momentumImbalance = ref > 0 ? imb / ref : 0;
 
 		// 5. commit
