@@ -1,0 +1,80 @@
+import { expect, test, type Page } from '@playwright/test';
+
+// the demo sign-ins of the seed (src/lib/server/seed.ts), local only
+const DEMO_PASSWORD = 'bubbles-demo-1';
+const ANALYST = 'analyst@marrowbay.test';
+const VIEWER = 'viewer@marrowbay.test';
+const SHOTS = 'artifacts/screenshots';
+
+async function signIn(page: Page, email: string) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail', { exact: true }).fill(email);
+	await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await expect(page.getByRole('navigation').getByText('Sign out')).toBeVisible();
+}
+
+test('the analyst signs in, creates a column and finds it in the table', async ({ page }) => {
+	await page.goto('/columns');
+	await expect(page).toHaveURL(/\/signin\?redirectTo=/);
+	await page.screenshot({ path: `${SHOTS}/01-sign-in.png`, fullPage: true });
+
+	await signIn(page, ANALYST);
+	await page.screenshot({ path: `${SHOTS}/02-home-analyst.png`, fullPage: true });
+
+	await page.getByRole('link', { name: 'Columns', exact: true }).click();
+	await expect(page.getByRole('heading', { name: 'Columns' })).toBeVisible();
+	await page.getByRole('link', { name: 'New column' }).click();
+	await expect(page.getByRole('heading', { name: 'New column' })).toBeVisible();
+
+	// a field-level error first: the diameter is missing
+	const tag = `E2E-${Date.now().toString(36).toUpperCase()}`;
+	await page.getByLabel('Tag', { exact: true }).fill(tag);
+	await page.getByLabel('Service', { exact: true }).fill('Bench-top bubble column, nitrogen into glycerol solution');
+	await page.getByLabel('Height', { exact: true }).fill('1.8');
+	await page.getByRole('button', { name: 'Create column' }).click();
+	await expect(page.getByText('Enter the inner diameter.')).toBeVisible();
+	await page.screenshot({ path: `${SHOTS}/03-new-column-error.png`, fullPage: true });
+
+	await page.getByLabel('Inner diameter', { exact: true }).fill('0.14');
+	await page.getByRole('button', { name: 'Create column' }).click();
+	await expect(page.getByRole('heading', { name: tag })).toBeVisible();
+	await page.screenshot({ path: `${SHOTS}/04-column-page.png`, fullPage: true });
+
+	await page.getByRole('link', { name: '← Columns' }).click();
+	const row = page.getByRole('row', { name: new RegExp(tag) });
+	await expect(row).toBeVisible();
+	await expect(row).toContainText('0.14');
+	await expect(row).toContainText('1.8');
+
+	// filter and sort work in the browser too
+	await page.getByLabel('Filter by tag or service').fill(tag);
+	await page.getByRole('button', { name: 'Filter' }).click();
+	await expect(page.getByRole('row')).toHaveCount(2);
+	await page.goto('/columns?sort=heightM&dir=desc');
+	const firstTag = await page.locator('tbody tr').first().locator('td').first().innerText();
+	expect(firstTag).toBe('R-201'); // the tallest demo column, 9 m
+	await page.screenshot({ path: `${SHOTS}/05-columns-table.png`, fullPage: true });
+});
+
+test('the viewer sees no create button and is refused the create action with 403', async ({ page }) => {
+	await signIn(page, VIEWER);
+	await page.goto('/columns');
+	await expect(page.getByRole('heading', { name: 'Columns' })).toBeVisible();
+	await expect(page.getByRole('row', { name: /C-101/ })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'New column' })).toHaveCount(0);
+	await expect(page.getByRole('link', { name: 'Delete' })).toHaveCount(0);
+	await page.screenshot({ path: `${SHOTS}/06-columns-viewer.png`, fullPage: true });
+
+	// the action itself, posted with the viewer's session as a crafted form would
+	const res = await page.request.post('/columns/new', {
+		form: { tag: 'SNEAK-1', service: '', diameterM: '1', heightM: '1', notes: '' },
+		headers: { origin: new URL(page.url()).origin }
+	});
+	expect(res.status()).toBe(403);
+
+	const direct = await page.goto('/columns/new');
+	expect(direct?.status()).toBe(403);
+	await expect(page.getByRole('heading', { name: 'Not allowed' })).toBeVisible();
+	await page.screenshot({ path: `${SHOTS}/07-viewer-403.png`, fullPage: true });
+});
