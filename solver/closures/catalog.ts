@@ -41,7 +41,7 @@ export const swarmCatalog: Catalog<typeof swarmCorrections> = {
 };
 
 export const virtualMassCatalog: Catalog<typeof virtualMassModels> = {
-	none: { label: 'None', models: 'no added mass (the height-profile model refuses it: the level zone is unstable without it)', source: '—' },
+	none: { label: 'None', models: 'no added mass: the level zone of the height profile is less damped without it', source: '—' },
 	constant: { label: 'Constant', models: 'added mass of the displaced liquid, C_VM = 0.5 for an isolated sphere', source: 'H. Lamb, Hydrodynamics, 6th ed. (1932)' },
 	zuber: { label: 'Zuber', models: 'holdup-dependent C_VM = ½(1 + 2α)/(1 − α)', source: 'N. Zuber (1964), Chem. Eng. Sci. 19, 897' }
 };

@@ -68,6 +68,23 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 		expect(rel(graceVelocity({ diameterM: 3e-3, ...water }), 0.2528)).toBeLessThan(0.01);
 	});
 
+	it('agrees with the Clift, Grace & Weber (1978) contaminated-water curve for the Tomiyama contaminated law', () => {
+		// Clift, Grace & Weber (1978), Bubbles, Drops and Particles, Fig. 7.3, readings from memory (PHYSICS §10):
+		// the readings themselves are uncertain by about ±15 %, so that is the stated tolerance; ranges use their midpoint
+		const readings: [number, number][] = [
+			[0.5e-3, 0.06],
+			[1e-3, 0.11],
+			[2e-3, 0.185],
+			[3e-3, 0.23],
+			[5e-3, 0.23],
+			[10e-3, 0.25]
+		];
+		for (const [d, u] of readings) {
+			const ut = terminalVelocity({ law: 'tomiyama-contaminated', diameterM: d, ...water });
+			expect(rel(ut, u)).toBeLessThan(0.15);
+		}
+	});
+
 	it('gives the drag coefficient per volume of a bubble swarm (#33)', () => {
 		// #33 [D]: 0.75·0.1·998.2·0.62·0.25/0.003
 		expect(rel(dragPerVolume({ holdup: 0.1, liquidDensityKgM3: 998.2, dragCoefficient: 0.62, slipMS: 0.25, diameterM: 3e-3 }), 3868)).toBeLessThan(2e-4);
