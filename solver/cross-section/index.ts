@@ -442,15 +442,23 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		// u = a + b r² through the two cells nearest the axis
 		const uc = n > 1 ? (9 * ul[0] - ul[1]) / 8 : ul[0];
 		let reversal = Number.NaN;
-		for (let i = 0; i < n - 1; i++) {
+		let umax = 0;
+		for (let i = 0; i < n; i++) umax = Math.max(umax, Math.abs(ul[i]));
+		// a liquid at rest (to round-off) has no reversal, only sign noise
+		for (let i = 0; umax > 1e-9 && i < n - 1; i++) {
 			if (ul[i] !== 0 && ul[i] * ul[i + 1] <= 0) {
 				reversal = (grid.centresM[i] + (dr * ul[i]) / (ul[i] - ul[i + 1])) / R;
 				break;
 			}
 		}
 		let imax = 0;
-		for (let i = 1; i < n; i++) if (alpha[i] > alpha[imax]) imax = i;
-		const hasGas = abar > 0;
+		let amin = alpha[0];
+		for (let i = 1; i < n; i++) {
+			if (alpha[i] > alpha[imax]) imax = i;
+			amin = Math.min(amin, alpha[i]);
+		}
+		// a profile flat to 1e-6 of its mean has no peak worth naming
+		const hasPeak = abar > 0 && alpha[imax] - amin > 1e-6 * abar;
 		const wallPeak = grid.centresM[imax] / R > 0.5;
 		return {
 			sectionHoldup: { value: abar, unit: '1', label: 'Section-average gas holdup' },
@@ -461,9 +469,9 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 				label: Number.isNaN(reversal) ? 'Liquid flow reversal radius r/R: no reversal' : 'Liquid flow reversal radius r/R'
 			},
 			peakLocation: {
-				value: hasGas ? (wallPeak ? 1 : 0) : Number.NaN,
+				value: hasPeak ? (wallPeak ? 1 : 0) : Number.NaN,
 				unit: '1',
-				label: hasGas ? (wallPeak ? 'Holdup peak: wall-peaked' : 'Holdup peak: core-peaked') : 'Holdup peak: no gas'
+				label: hasPeak ? (wallPeak ? 'Holdup peak: wall-peaked' : 'Holdup peak: core-peaked') : abar > 0 ? 'Holdup peak: none (flat profile)' : 'Holdup peak: no gas'
 			},
 			axialPressureGradientPaM: { value: -pressureGradient, unit: 'Pa/m', label: 'Axial pressure gradient dp/dz' }
 		};
