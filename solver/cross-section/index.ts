@@ -6,7 +6,7 @@
  * section: G = −dp/dz. Equations (PHYSICS.md §4–§7):
  * - axial momentum of both phases (see `momentum.ts`): liquid with μ_eff = μ_l + Nikuradse mixing
  *   length + Sato bubble-induced viscosity, gas with drag (the height model's drag laws and swarm
- *   factor) and virtual mass;
+ *   factor, K = (3/4) α ρ_l C_D |u_r|/d, i.e. K ∝ α, PHYSICS §1.7) and virtual mass;
  * - radial force balance on the gas: lift + wall lubrication + turbulent dispersion balanced by
  *   drag, giving the radial gas flux α v_g = α (1 − α) (F_L + F_W + F_TD)/K (zero net radial volume
  *   flux, so the radial slip is v_g/(1 − α)); radial pressure gradient and radial inertia are

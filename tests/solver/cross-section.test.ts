@@ -76,6 +76,7 @@ describe('cross-section model, single-phase limit (no gas)', () => {
 		// no gas: no holdup, no peak, no reversal
 		expect(results.design.sectionHoldup.value).toBe(0);
 		expect(Number.isNaN(results.design.reversalRadiusRatio.value)).toBe(true);
+		expect(results.design.peakLocation.label).toMatch(/no gas/);
 	});
 });
 
