@@ -20,6 +20,16 @@ function pow0687(x: number): number {
 	return x > 0 ? Math.exp(0.687 * Math.log(x)) : 0;
 }
 
+/** Numeric codes of the drag laws, for hot loops that must not allocate. */
+export const DRAG_LAW_CODES: Record<DragLaw, number> = {
+	stokes: 0,
+	'schiller-naumann': 1,
+	'ishii-zuber': 2,
+	'tomiyama-pure': 3,
+	'tomiyama-slightly-contaminated': 4,
+	'tomiyama-contaminated': 5
+};
+
 /**
  * C_D·Re of one bubble for the given law (finite at Re = 0).
  * Stokes (1851): 24. Schiller & Naumann (1933): 24(1 + 0.15 Re^0.687), 0.44 Re above Re = 1000.
@@ -28,31 +38,38 @@ function pow0687(x: number): number {
  * Tomiyama, Kataoka, Zun & Sakaguchi (1998), JSME Int. J. B 41, 472: pure / slightly contaminated / contaminated.
  */
 export function dragCoefficientTimesReynolds(input: DragInput): number {
-	const re = input.reynolds > 0 ? input.reynolds : 0;
-	switch (input.law) {
-		case 'stokes':
+	return dragCdRe(DRAG_LAW_CODES[input.law], input.reynolds, input.eotvos, input.holdup);
+}
+
+/** `dragCoefficientTimesReynolds` with the law as its numeric code and plain arguments (no allocation). */
+export function dragCdRe(law: number, reynolds: number, eotvos: number, holdup: number): number {
+	const re = reynolds > 0 ? reynolds : 0;
+	switch (law) {
+		case 0:
 			return 24;
-		case 'schiller-naumann':
+		case 1:
 			return re <= 1000 ? 24 * (1 + 0.15 * pow0687(re)) : 0.44 * re;
-		case 'tomiyama-pure':
-			return Math.max(Math.min(16 * (1 + 0.15 * pow0687(re)), 48), ((8 / 3) * input.eotvos * re) / (input.eotvos + 4));
-		case 'tomiyama-slightly-contaminated':
-			return Math.max(Math.min(24 * (1 + 0.15 * pow0687(re)), 72), ((8 / 3) * input.eotvos * re) / (input.eotvos + 4));
-		case 'tomiyama-contaminated':
-			return Math.max(24 * (1 + 0.15 * pow0687(re)), ((8 / 3) * input.eotvos * re) / (input.eotvos + 4));
-		case 'ishii-zuber': {
-			const al = Math.min(Math.max(1 - input.holdup, 1e-6), 1);
+		case 3:
+			return Math.max(Math.min(16 * (1 + 0.15 * pow0687(re)), 48), ((8 / 3) * eotvos * re) / (eotvos + 4));
+		case 4:
+			return Math.max(Math.min(24 * (1 + 0.15 * pow0687(re)), 72), ((8 / 3) * eotvos * re) / (eotvos + 4));
+		case 5:
+			return Math.max(24 * (1 + 0.15 * pow0687(re)), ((8 / 3) * eotvos * re) / (eotvos + 4));
+		case 2: {
+			const al = Math.min(Math.max(1 - holdup, 1e-6), 1);
 			// mixture viscosity μ_m = μ_l/(1 − α) for bubbles (α_max = 1, μ_g ≪ μ_l), so Re_m = Re (1 − α)
 			const reM = re * al;
 			const visTimesRe = (24 / al) * (1 + 0.1 * (reM > 0 ? Math.exp(0.75 * Math.log(reM)) : 0));
 			const f = al * Math.sqrt(al);
 			const e = (1 + 17.67 * Math.exp((6 / 7) * Math.log(f))) / (18.67 * f);
-			const dis = (2 / 3) * Math.sqrt(input.eotvos) * e * e;
+			const dis = (2 / 3) * Math.sqrt(eotvos) * e * e;
 			const cap = (8 / 3) * al * al;
 			// regime selection as commonly implemented for bubbles (PHYSICS §1.4)
 			if (visTimesRe >= dis * re) return visTimesRe;
 			return Math.min(dis, cap) * re;
 		}
+		default:
+			throw new Error(`Unknown drag law code ${law}`);
 	}
 }
 

@@ -18,8 +18,13 @@ export function darcyFrictionFactor(reynolds: number): number {
  */
 export function wallFrictionCoefficient(o: { model: WallFrictionModel; liquidFraction: number; liquidDensityKgM3: number; liquidViscosityPaS: number; liquidVelocityMS: number; diameterM: number }): number {
 	if (o.model === 'none') return 0;
-	const u = Math.abs(o.liquidVelocityMS);
-	const re = (o.liquidDensityKgM3 * u * o.diameterM) / o.liquidViscosityPaS;
-	if (re < 2000) return (o.liquidFraction * 32 * o.liquidViscosityPaS) / (o.diameterM * o.diameterM);
-	return (o.liquidFraction * darcyFrictionFactor(re) * o.liquidDensityKgM3 * u) / (2 * o.diameterM);
+	return blasiusFrictionCoefficient(o.liquidFraction, o.liquidDensityKgM3, o.liquidViscosityPaS, o.liquidVelocityMS, o.diameterM);
+}
+
+/** λ of the Blasius/laminar law with plain arguments (no allocation, for the solver's face loop). */
+export function blasiusFrictionCoefficient(liquidFraction: number, densityKgM3: number, viscosityPaS: number, velocityMS: number, diameterM: number): number {
+	const u = Math.abs(velocityMS);
+	const re = (densityKgM3 * u * diameterM) / viscosityPaS;
+	if (re < 2000) return (liquidFraction * 32 * viscosityPaS) / (diameterM * diameterM);
+	return (liquidFraction * darcyFrictionFactor(re) * densityKgM3 * u) / (2 * diameterM);
 }

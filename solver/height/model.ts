@@ -21,9 +21,9 @@
  * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
  * No allocation per step: every array is allocated once in the constructor.
  */
-import { dragCoefficientTimesReynolds, eotvosNumber, terminalVelocity } from '../closures/drag.js';
+import { DRAG_LAW_CODES, dragCdRe, eotvosNumber, terminalVelocity } from '../closures/drag.js';
 import { swarmExponent } from '../closures/swarm.js';
-import { wallFrictionCoefficient } from '../closures/friction.js';
+import { blasiusFrictionCoefficient } from '../closures/friction.js';
 import type { HeightModelConfig } from './config.js';
 import { gasCompressibility } from './config.js';
 import type { RunStatus } from '../types.js';
@@ -128,7 +128,7 @@ export class HeightModel {
 		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
 		this.eotvos = eotvosNumber({ diameterM: cfg.bubbleDiameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: Math.abs(cfg.gravityAxialMS2) });
-		this.lawIndex = cfg.drag === 'none' ? -1 : 0;
+		this.lawIndex = cfg.drag === 'none' ? -1 : DRAG_LAW_CODES[cfg.drag];
 		let reT = 0;
 		if (cfg.drag !== 'none' && cfg.swarm !== 'none') {
 			const ut = terminalVelocity({ law: cfg.drag, diameterM: cfg.bubbleDiameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, liquidViscosityPaS: cfg.liquidViscosityPaS, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: Math.abs(cfg.gravityAxialMS2) });
@@ -227,13 +227,6 @@ export class HeightModel {
 		return dt;
 	}
 
-	/** C_D·Re of the configured law (switch kept out of the face loop's closure creation). */
-	private cdRe(re: number, holdup: number): number {
-		const law = this.cfg.drag;
-		if (law === 'none') return 0;
-		return dragCoefficientTimesReynolds({ law, reynolds: re, eotvos: this.eotvos, holdup });
-	}
-
 	/** Face value of a cell field for the donor flux, with the optional TVD limiter. */
 	private faceValue(f: Float64Array, donor: number, acceptor: number, far: number, courant: number, useField: boolean): number {
 		const vd = useField ? f[donor] : 1 - f[donor];
@@ -320,7 +313,7 @@ export class HeightModel {
 			let w = 0;
 			if (this.lawIndex >= 0) {
 				const re = (rl * aur * d) / mul;
-				let kb = 0.75 * ag * mul * this.cdRe(re, af) * invD2;
+				let kb = 0.75 * ag * mul * dragCdRe(this.lawIndex, re, this.eotvos, af) * invD2;
 				if (swarmPow !== 0) kb *= Math.exp(swarmPow * Math.log(alq > 1e-6 ? alq : 1e-6));
 				k = kb;
 				if (blend && af > blend.fromHoldup) {
@@ -344,7 +337,7 @@ export class HeightModel {
 			const dadz = isTop ? 0 : (lf[below] - lf[j]) / dz;
 			const dpi = cp * rl * ur * ur;
 			const lam = frictionOn
-				? wallFrictionCoefficient({ model: cfg.wallFriction, liquidFraction: lff, liquidDensityKgM3: rl, liquidViscosityPaS: mul, liquidVelocityMS: ulj, diameterM: cfg.diameterM })
+				? blasiusFrictionCoefficient(lff, rl, mul, ulj, cfg.diameterM)
 				: 0;
 			// Δp_i ∂α/∂z = C_p ρ_l |u_r| u_r ∂α/∂z acts like a drag with coefficient C_p ρ_l |u_r| ∂α/∂z·sgn(u_r).
 			// It is taken implicitly together with the drag (|u_r| old, u_r new) whenever the sum stays a drag:
