@@ -66,6 +66,8 @@ if (csvPath) {
 	const p = results.profiles;
 	const names = Object.keys(p.fields);
 	const units: Record<string, string> = { holdup: '1', gasVelocity: 'm/s', liquidVelocity: 'm/s', pressure: 'Pa', gasDensity: 'kg/m3', slip: 'm/s' };
+	// cross-section fields: viscosity and the radial forces on the gas per unit mixture volume
+	Object.assign(units, { effectiveViscosity: 'Pa.s', liftForce: 'N/m3', wallLubricationForce: 'N/m3', dispersionForce: 'N/m3', dragForce: 'N/m3' });
 	const axis = results.kind === 'cross-section' ? 'r_m' : 'z_m';
 	const lines = [[axis, ...names.map((n) => `${n}_${(units[n] ?? '').replace('/', '_per_') || '1'}`)].join(',')];
 	for (let i = 0; i < p.x.length; i++) lines.push([p.x[i], ...names.map((n) => p.fields[n][i])].map((v) => String(v)).join(','));
