@@ -16,8 +16,14 @@
  *   through the section's gas content, relaxed towards it as if the section exchanged the flux
  *   imbalance with a column height H = D: d⟨α⟩/dt = (U_g − ⟨α u_g⟩)/H, with ⟨α u_g⟩ = ū ⟨α⟩ taken
  *   implicitly in ⟨α⟩ (ū the old mean gas velocity), added in proportion to the local holdup (keeps
- *   the profile's shape and α ≥ 0). The radial transport alone conserves the
- *   section's gas to round-off; the only change is this source, which vanishes at steady state.
+ *   the profile's shape and α ≥ 0). The radial transport alone conserves the section's gas to
+ *   round-off; the only change is this source, which vanishes at steady state.
+ *
+ * Known behaviour: the mixing-length viscosity vanishes with the shear on the axis, so there only the
+ * bubble-induced part remains and the core profiles are peaky; with C_L < 0 and no wall force an
+ * inverted circulation (down in the core) is also a steady solution, and which one a run reaches
+ * depends on the first push (wall lubrication gives the usual one). Without turbulent dispersion
+ * nothing spreads the gas and a run usually fails on the holdup limit.
  *
  * Wall treatment: a wall function (log law, κ = 0.41, E = 9.793, switching to the viscous sublayer
  * below y⁺ ≈ 11.5) at the first cell centre; the near-wall layer is not resolved.
