@@ -170,8 +170,9 @@ export class HeightModel {
 			const af = 1 - 0.5 * (lf[i] + lf[i + 1]);
 			const lff = 1 - af;
 			if (rc === undefined) {
+				// p_i − p_{i+1} = −g Δz (α_f ψ (p_i + p_{i+1})/2 + α_l,f ρ_l), solved for p_i
 				const k = 0.5 * g * dz * af * psi;
-				p[i] = (p[i + 1] * (1 + k) - g * dz * lff * rl) / (1 - k);
+				p[i] = (p[i + 1] * (1 - k) - g * dz * lff * rl) / (1 + k);
 			} else {
 				p[i] = p[i + 1] - g * dz * (af * rc + lff * rl);
 			}
