@@ -289,8 +289,10 @@ export function dropDatabase(name, bin = ensureBinaries()) {
 /** Drop and create again: a clean database for one test run. */
 export function recreateDatabase(name) {
 	const bin = ensureBinaries();
-	dropDatabase(name, bin);
-	ensureDatabase(name, bin);
+	checkName(name);
+	psql(bin, `drop database if exists ${name} with (force)`);
+	psql(bin, `create database ${name} owner ${PG_USER}`);
+	log(`recreated database ${name} (empty)`);
 }
 
 export async function stop() {
