@@ -161,6 +161,21 @@ describe('a sparged air–water batch column (the reference case)', () => {
 		expect(Math.abs(leftKgM2 - fedKgM2) / fedKgM2).toBeLessThan(c2.numerics.steadyTolerance);
 	});
 
+	it('puts the weight of the liquid and the gas on the sparger', () => {
+		// steady column: p_bottom = p_top + (liquid + gas mass per area)·g, up to the convective momentum flux at
+		// the level (PHYSICS §18: ~5e-5 relative)
+		let gasMass = 0;
+		for (let i = 0; i < m.n; i++) gasMass += (1 - m.liquidFraction[i]) * m.gasDensity[i] * m.dz;
+		const expected = 101325 + (998.2 * sim.liquidInventoryM() + gasMass) * 9.81;
+		const d = sim.results().design;
+		expect(Math.abs(d.spargerPressurePa.value - expected) / expected).toBeLessThan(5e-5);
+		// the derived numbers follow their definitions: a = 6ε/d, k_L a with Higbie's k_L (PHYSICS §8.5)
+		expect(d.interfacialAreaPerM.value).toBeCloseTo((6 * d.overallHoldup.value) / 0.004, 9);
+		const kl = 2 * Math.sqrt(2e-9 / (Math.PI * (0.004 / d.meanSlipMS.value)));
+		expect(d.kLaPerS.value).toBeCloseTo(kl * d.interfacialAreaPerM.value, 12);
+		expect(d.levelSwellM.value).toBeCloseTo(d.aeratedHeightM.value - 1.5, 12);
+	});
+
 	it('reports its holdup beside Akita–Yoshida (1973), Hughmark (1967) and Zuber–Findlay (1965)', () => {
 		const d = sim.results().design;
 		console.info(
