@@ -301,13 +301,19 @@ export class HeightModel {
 			const ulj = ul[j];
 			const ur = ugj - ulj;
 			const aur = ur < 0 ? -ur : ur;
-			// explicit upwind convection with the Courant number clipped at 1, so the would-be velocity of an
-			// absent (or very dilute) phase stays bounded instead of setting the time step
+			// explicit upwind convection, α_k ρ_k u ∂u/∂z ≈ (α_k ρ_k u)_donor cell (u_j − u_upwind)/Δz: momentum
+			// arrives with the mass that carries it, so the would-be velocity of an absent phase upstream (drops
+			// in a clean freeboard) brings none. The Courant number is clipped at 1 so a dilute phase's velocity
+			// stays bounded instead of setting the time step.
+			const dnG = ugj >= 0 ? below : isTop ? below : j;
+			const dnL = ulj >= 0 ? below : isTop ? below : j;
 			let up = ugj >= 0 ? ug[j - 1] : j < n ? ug[j + 1] : ugj;
-			let nu = (ugj < 0 ? -ugj : ugj) * courantScale;
+			const shareG = (1 - lf[dnG]) / ag;
+			let nu = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
 			const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
 			up = ulj >= 0 ? ul[j - 1] : j < n ? ul[j + 1] : ulj;
-			nu = (ulj < 0 ? -ulj : ulj) * courantScale;
+			const shareL = lf[dnL] / alq;
+			nu = (ulj < 0 ? -ulj : ulj) * courantScale * (shareL < 1 ? shareL : 1);
 			const uls = ulj - (nu < 1 ? nu : 1) * (ulj - up);
 			// interfacial drag per volume, K (kg m⁻³ s⁻¹)
 			let k = 0;
