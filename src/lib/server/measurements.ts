@@ -6,7 +6,6 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './db/app.js';
 import { auditLog, cases, columns, measurements, runs, snapshots } from './db/schema.js';
-import { decodeSnapshot } from './runs/codec.js';
 import { parseMeasurementCsv, type CsvIssue } from '../measurements/csv.js';
 import {
 	errorMeasures,
@@ -20,7 +19,7 @@ import {
 } from '../measurements/compare.js';
 import type { MeasurementKind, OperatingPoint } from '../measurements/kinds.js';
 import type { CaseDocument } from '../../../solver/case.js';
-import type { Snapshot } from '../../../solver/types.js';
+import { decodeStoredSnapshot, type DecodedSnapshot } from '../measurements/snapshot-decode.js';
 import { validateUploadMeta } from '../measurements/upload.js';
 
 export type Measurement = typeof measurements.$inferSelect;
@@ -214,14 +213,14 @@ export async function listRunsAtOperatingPoint(options: { teamId: string; column
 }
 
 /** The final snapshot of each given run that has one, decoded. */
-async function finalSnapshots(runIds: string[]): Promise<Map<string, Snapshot>> {
-	const out = new Map<string, Snapshot>();
+async function finalSnapshots(runIds: string[]): Promise<Map<string, DecodedSnapshot>> {
+	const out = new Map<string, DecodedSnapshot>();
 	if (runIds.length === 0) return out;
 	const rows = await db
 		.select({ runId: snapshots.runId, data: snapshots.data })
 		.from(snapshots)
 		.where(and(inArray(snapshots.runId, runIds), eq(snapshots.isFinal, true)));
-	for (const r of rows) out.set(r.runId, decodeSnapshot(r.data));
+	for (const r of rows) out.set(r.runId, decodeStoredSnapshot(r.data));
 	return out;
 }
 
@@ -281,7 +280,7 @@ export interface MeasurementAgainstRun {
 export async function measurementsForRun(options: {
 	teamId: string;
 	run: { id: string; columnId: string; caseDocument: CaseDocument };
-	snapshot?: Snapshot | null;
+	snapshot?: DecodedSnapshot | null;
 }): Promise<MeasurementAgainstRun[]> {
 	const doc = options.run.caseDocument;
 	const kinds = (Object.keys(profileFieldOfKind) as MeasurementKind[]).filter((k) => profileFieldOfKind[k]?.caseKind === doc.kind);
