@@ -2,13 +2,15 @@
  * The height-profile simulation object: drives `HeightModel`, detects steady state from integral
  * measures over fixed windows of simulated time, and reports residuals, snapshots, checkpoints and results.
  *
- * Steady rule (PHYSICS §18.1): over each window of `steadyWindowS` of simulated time
+ * Steady rule (PHYSICS §18.1: integral measures over windows, not instantaneous values): over each window
+ * of `steadyWindowS` of simulated time
  *   gasMassImbalance     |∫(gas in − gas out) dt| / ∫(gas fed) dt
  *   liquidMassImbalance  |∫(liquid in − liquid out) dt| (volume) / ∫(gas fed, volume at the sparger) dt
- *   overallHoldupChange  |Δε| over the window per second, ε the holdup below the level
- *   liquidCentreRate     |Δz_c|/Δt of the liquid's centre of height over the gas feed velocity
- * all at or below the steady tolerance ⇒ converged. `holdupChangeRate` (max local |dα/dt| × 1 s) is
- * reported beside them but is no stop criterion: the level zone keeps churning at round-off scale on fine grids.
+ *   holdupChangeRate     max over cells of |Δα| over the window, per second
+ *   overallHoldupChange  |Δε| over the window, per second, ε the holdup below the level
+ *   liquidCentreRate     |Δz_c|/Δt of the liquid's centre of height over the gas feed velocity (catches
+ *                        liquid still raining back from the freeboard while ε already looks steady)
+ * all at or below the steady tolerance ⇒ converged. The values shown before the first window closes are 1.
  */
 import type { CaseDocument } from '../case.js';
 import type { Checkpoint, Residuals, Results, Simulation, SimulationState, Snapshot, StepStatus, DesignNumber, RunStatus } from '../types.js';
@@ -21,7 +23,8 @@ import { regimeFromBand } from '../correlations/regime.js';
 
 export const HEIGHT_MODEL_VERSION = 'height-1.0.0';
 
-export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'overallHoldupChange', 'liquidCentreRate', 'holdupChangeRate'] as const;
+/** Stable residual ids of the height-profile model (database and chart keys). */
+export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'holdupChangeRate', 'overallHoldupChange', 'liquidCentreRate'] as const;
 
 export interface HeightSimulation extends Simulation {
 	/** the underlying model (tests and the benchmark read its arrays) */
@@ -61,12 +64,15 @@ class HeightSimulationImpl implements HeightSimulation {
 	private winLiqOut = 0;
 	private liquidNetInM = 0;
 	private windows = 0;
-	private res = { gasMassImbalance: 1, liquidMassImbalance: 1, overallHoldupChange: 1, liquidCentreRate: 1 };
+	private res = { gasMassImbalance: 1, liquidMassImbalance: 1, overallHoldupChange: 1, liquidCentreRate: 1, holdupChangeRate: 1 };
+	/** liquid fraction at the start of the current window */
+	private readonly winLiquid: Float64Array;
 
 	constructor(caseDoc: CaseDocument, cfg: HeightModelConfig) {
 		this.caseDoc = caseDoc;
 		this.cfg = cfg;
 		this.model = new HeightModel(cfg);
+		this.winLiquid = Float64Array.from(this.model.liquidFraction);
 		const fin = cfg.bottom.kind === 'inflow' ? cfg.bottom.gasMassFluxKgM2S : 0;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
 		// with no gas fed, normalise by a 1 mm/s gas flux so the measures stay finite
@@ -109,6 +115,15 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.res.liquidMassImbalance = Math.abs(this.winLiqIn - this.winLiqOut) / (this.volumeRef * span);
 		this.res.overallHoldupChange = Math.abs(eps - this.winHoldup) / span;
 		this.res.liquidCentreRate = Math.abs(zc - this.winCentre) / span / this.volumeRef;
+		let maxChange = 0;
+		const lf = m.liquidFraction;
+		const w = this.winLiquid;
+		for (let i = 0; i < m.n; i++) {
+			const d = Math.abs(lf[i] - w[i]);
+			if (d > maxChange) maxChange = d;
+			w[i] = lf[i];
+		}
+		this.res.holdupChangeRate = maxChange / span;
 		this.windows++;
 		this.winStartS = m.timeS;
 		this.winHoldup = eps;
@@ -125,14 +140,15 @@ class HeightSimulationImpl implements HeightSimulation {
 			r.gasMassImbalance <= tol &&
 			r.liquidMassImbalance <= tol &&
 			r.overallHoldupChange <= tol &&
-			r.liquidCentreRate <= tol
+			r.liquidCentreRate <= tol &&
+			r.holdupChangeRate <= tol
 		) {
 			m.status = 'converged';
 		}
 	}
 
 	residuals(): Residuals {
-		return { ...this.res, holdupChangeRate: this.model.lastMaxHoldupRate };
+		return { ...this.res };
 	}
 
 	level(): number {
@@ -236,7 +252,8 @@ class HeightSimulationImpl implements HeightSimulation {
 				winLiqOut: this.winLiqOut,
 				liquidNetInM: this.liquidNetInM,
 				windows: this.windows,
-				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate]
+				windowLiquidFraction: Float64Array.from(this.winLiquid),
+				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate]
 			}
 		};
 	}
@@ -256,6 +273,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		arr('gasDensity', m.gasDensity);
 		arr('gasVelocity', m.gasVelocity);
 		arr('liquidVelocity', m.liquidVelocity);
+		arr('windowLiquidFraction', this.winLiquid);
 		const num = (name: string) => {
 			const v = d[name];
 			if (typeof v !== 'number') throw new Error(`Checkpoint field ${name} is missing`);
@@ -277,7 +295,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.liquidNetInM = num('liquidNetInM');
 		this.windows = num('windows');
 		const r = d.residuals as number[];
-		this.res = { gasMassImbalance: r[0], liquidMassImbalance: r[1], overallHoldupChange: r[2], liquidCentreRate: r[3] };
+		this.res = { gasMassImbalance: r[0], liquidMassImbalance: r[1], overallHoldupChange: r[2], liquidCentreRate: r[3], holdupChangeRate: r[4] };
 	}
 
 	results(): Results {
