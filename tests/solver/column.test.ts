@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { defaultCase, type CaseDocument } from '../../solver/case.js';
-import { createHeightSimulation, type HeightSimulation } from '../../solver/height/simulation.js';
+import { createHeightSimulation, residualNames, type HeightSimulation } from '../../solver/height/simulation.js';
 import { stokesVelocity, terminalVelocity } from '../../solver/closures/drag.js';
 import { idealGasDensity, GRAVITY_MS2 } from '../../solver/fluids.js';
 import { runToEnd } from '../../solver/index.js';
@@ -121,6 +121,10 @@ describe('a sparged air–water batch column (the reference case)', () => {
 
 	it('reaches a steady state and conserves the liquid to 1e-12', () => {
 		expect(sim.state.status).toBe('converged');
+		// the stop rule: every residual at or below the steady tolerance, under its stable id
+		const r = sim.residuals();
+		expect(Object.keys(r).sort()).toEqual([...residualNames].sort());
+		for (const v of Object.values(r)) expect(v).toBeLessThanOrEqual(c.numerics.steadyTolerance);
 		expect(Math.abs(sim.liquidInventoryM() - inventory0) / inventory0).toBeLessThan(1e-12);
 		expect(sim.results().design.liquidMassErrorRel.value).toBeLessThan(1e-12);
 	});
