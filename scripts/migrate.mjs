@@ -1,4 +1,5 @@
 #!/usr/bin/env node
+// @ts-nocheck -- plain JavaScript run before any install; svelte-check would demand JSDoc types
 /**
  * Applies the committed SQL migrations in `drizzle/` to DATABASE_URL with drizzle-orm's runtime
  * migrator. An advisory lock makes concurrent starts (app, worker, tests) take turns.

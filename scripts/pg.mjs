@@ -1,4 +1,5 @@
 #!/usr/bin/env node
+// @ts-nocheck -- plain JavaScript run before any install; svelte-check would demand JSDoc types
 /**
  * A private PostgreSQL cluster for Twofold on 127.0.0.1, built from Debian's server binaries.
  * Dependency-free on purpose: it must run on a fresh clone before `npm ci`.

@@ -1,4 +1,5 @@
 #!/usr/bin/env node
+// @ts-nocheck -- plain JavaScript run before any install; svelte-check would demand JSDoc types
 /**
  * The two commands (and two more), dependency-free so they run on a fresh clone:
  *

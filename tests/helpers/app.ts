@@ -7,7 +7,6 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import net from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-// @ts-expect-error plain .mjs script without types
 import { buildIfNeeded } from '../../scripts/twofold.mjs';
 import { startMailCatcher, type MailCatcher } from '../../src/lib/server/mail/catcher.js';
 import { prepareTestDatabase, testDatabaseUrl } from './env.js';

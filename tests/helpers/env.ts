@@ -2,9 +2,7 @@
  * Where the tests find their database. `npm test` sets DATABASE_URL to a freshly created
  * `twofold_test`; a direct `npx vitest run …` falls back to the same database on the private cluster.
  */
-// @ts-expect-error plain .mjs script without types
 import * as pg from '../../scripts/pg.mjs';
-// @ts-expect-error plain .mjs script without types
 import { migrateDatabase } from '../../scripts/migrate.mjs';
 
 export function testDatabaseUrl(): string {
