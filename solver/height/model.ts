@@ -493,7 +493,7 @@ export class HeightModel {
 			old[i] = lf[i];
 			lf[i] = lf[i] - r * (lfx[i + 1] - lfx[i]);
 		}
-		this.repair(lf, lfx, gf);
+		this.repair(lf, lfx, gf, r);
 
 		// 6. gas density from the new pressure, boundary velocities, diagnostics
 		const rc = cfg.gasDensityKgM3;
@@ -524,30 +524,46 @@ export class HeightModel {
 	 * its liquid flowed to; a cell left with negative gas (liquid above one) takes gas back from the
 	 * neighbour(s) its gas flowed to, i.e. hands them the excess liquid. Liquid volume is conserved exactly.
 	 */
-	private repair(lf: Float64Array, liquidFlux: Float64Array, gasFlux: Float64Array): void {
+	private repair(lf: Float64Array, liquidFlux: Float64Array, gasFlux: Float64Array, dtOverDz: number): void {
 		const n = this.n;
+		// an end that passes liquid can settle a share with the outside: the liquid flux through it is corrected
+		// so the inventory bookkeeping stays exact
+		const top = this.cfg.top;
+		const topOpen = top.kind === 'pressure' && top.liquid === 'open';
+		const bottomOpen = this.cfg.bottom.kind === 'inflow' && this.cfg.bottom.liquidVolumeFluxMS !== 0;
 		for (let pass = 0; pass < 16; pass++) {
 			let any = false;
 			for (let i = 0; i < n; i++) {
 				const v = lf[i];
 				if (v < 0) {
-					const toTop = i < n - 1 && liquidFlux[i + 1] > 0 ? liquidFlux[i + 1] : 0;
-					const toBot = i > 0 && liquidFlux[i] < 0 ? -liquidFlux[i] : 0;
+					// liquid over-drained: take it back from where it went
+					const toTop = liquidFlux[i + 1] > 0 && (i < n - 1 || topOpen) ? liquidFlux[i + 1] : 0;
+					const toBot = liquidFlux[i] < 0 && (i > 0 || bottomOpen) ? -liquidFlux[i] : 0;
 					const tot = toTop + toBot;
 					if (tot > 0) {
 						any = true;
-						if (toTop > 0) lf[i + 1] += (v * toTop) / tot;
-						if (toBot > 0) lf[i - 1] += (v * toBot) / tot;
+						if (toTop > 0) {
+							if (i < n - 1) lf[i + 1] += (v * toTop) / tot;
+							else liquidFlux[n] += (v * toTop) / tot / dtOverDz;
+						}
+						if (toBot > 0) {
+							if (i > 0) lf[i - 1] += (v * toBot) / tot;
+							else liquidFlux[0] -= (v * toBot) / tot / dtOverDz;
+						}
 						lf[i] = 0;
 					}
 				} else if (v > 1) {
-					const toTop = i < n - 1 && gasFlux[i + 1] > 0 ? gasFlux[i + 1] : 0;
-					const toBot = i > 0 && gasFlux[i] < 0 ? -gasFlux[i] : 0;
+					// gas over-drained: take gas back from where it went, i.e. hand that side the excess liquid
+					const toTop = gasFlux[i + 1] > 0 && (i < n - 1 || topOpen) ? gasFlux[i + 1] : 0;
+					const toBot = gasFlux[i] < 0 && i > 0 ? -gasFlux[i] : 0;
 					const tot = toTop + toBot;
 					if (tot > 0) {
 						any = true;
 						const ex = v - 1;
-						if (toTop > 0) lf[i + 1] += (ex * toTop) / tot;
+						if (toTop > 0) {
+							if (i < n - 1) lf[i + 1] += (ex * toTop) / tot;
+							else liquidFlux[n] += (ex * toTop) / tot / dtOverDz;
+						}
 						if (toBot > 0) lf[i - 1] += (ex * toBot) / tot;
 						lf[i] = 1;
 					}
