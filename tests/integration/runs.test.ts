@@ -1,0 +1,527 @@
+/**
+ * Runs as queued jobs, end to end: the built app, real PostgreSQL, real pg-boss and real worker
+ * processes (`tsx worker/index.ts`) started and killed by this file.
+ *
+ * Reference for "identical results": the same case driven in this process by the solver library
+ * itself (`createSimulation` + `step()` to the end), which is what an uninterrupted run computes.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { startApp, type RunningApp } from '../helpers/app.js';
+import { openTestDb } from '../helpers/db.js';
+import { testDatabaseUrl } from '../helpers/env.js';
+import { TestClient, signedInClient } from '../helpers/http.js';
+import { waitForMail } from '../helpers/mail.js';
+import { createTestTeam, type TestTeam } from '../helpers/team.js';
+import type { DbHandle } from '../../src/lib/server/db/index.js';
+import { cases, checkpoints, columns, memberships, outgoingMail, residuals, runs, snapshots, teams } from '../../src/lib/server/db/schema.js';
+import { decodeSnapshot, encodeSnapshot } from '../../src/lib/server/runs/codec.js';
+import { storesResidualStep } from '../../worker/jobs/solve-protocol.js';
+import { createSimulation, defaultCase, type CaseDocument } from '../../solver/index.js';
+import type { Residuals, Results } from '../../solver/types.js';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+
+// ------------------------------------------------------------------ cases used here
+
+/** 1 m column, 40 cells: converges to steady state in a few hundred steps (well under a second). */
+function smallCase(name = 'small'): CaseDocument {
+	const c = defaultCase('height-profile');
+	c.name = name;
+	c.geometry.heightM = 1;
+	c.geometry.clearLiquidLevelM = 0.7;
+	c.numerics.cells = 40;
+	c.numerics.endTimeS = 60;
+	c.numerics.snapshotIntervalS = 1;
+	return c;
+}
+
+/**
+ * The reference case of the solver issue (air–water, 2 m column, 0.2 m diameter, 1.5 m clear level,
+ * 100 cells): a few hundred steps. Crash, cancel and wall-time tests run it on a worker paced at
+ * `PACE_MS` per step (wall time only; the numbers are unchanged), so it lasts a few seconds.
+ */
+function referenceCase(name = 'reference'): CaseDocument {
+	const c = defaultCase('height-profile');
+	c.name = name;
+	c.numerics.snapshotIntervalS = 2;
+	return c;
+}
+
+const PACE_MS = '6';
+
+/** Superficial gas velocity 1 m/s at CFL 1 in a 1 m column: the holdup leaves [0, 1] within a few steps. */
+function divergingCase(): CaseDocument {
+	const c = smallCase('diverging');
+	c.numerics.cflNumber = 1;
+	c.sparging.superficialGasVelocityMS = 1;
+	return c;
+}
+
+/** The uninterrupted reference: the solver library driven here, keeping the residuals of the stored steps. */
+function solveHere(caseDoc: CaseDocument): { results: Results; residualsByStep: Map<number, Residuals> } {
+	const sim = createSimulation(caseDoc);
+	const residualsByStep = new Map<number, Residuals>();
+	for (;;) {
+		const s = sim.step();
+		const ended = s.status !== 'running';
+		if (ended || storesResidualStep(sim.state.step)) residualsByStep.set(sim.state.step, { ...sim.residuals() });
+		if (ended) break;
+	}
+	return { results: sim.results(), residualsByStep };
+}
+
+// ------------------------------------------------------------------ worker processes
+
+interface WorkerProcess {
+	child: ChildProcess;
+	output(): string;
+	/** SIGTERM and wait for the exit code */
+	stop(): Promise<number | null>;
+	kill(): Promise<void>;
+}
+
+const workers: WorkerProcess[] = [];
+
+async function startWorker(app: RunningApp, env: Record<string, string> = {}): Promise<WorkerProcess> {
+	let log = '';
+	// node itself with tsx's loader, not the tsx CLI: a SIGKILL must reach the worker, not a wrapper
+	const child = spawn(process.execPath, ['--import', 'tsx', 'worker/index.ts'], {
+		cwd: ROOT,
+		env: {
+			...process.env,
+			DATABASE_URL: testDatabaseUrl(),
+			SMTP_HOST: '127.0.0.1',
+			SMTP_PORT: String(app.smtpPort),
+			ORIGIN: app.baseUrl,
+			TWOFOLD_WORKER_CONCURRENCY: '1',
+			TWOFOLD_WORKER_POLL_S: '0.5',
+			TWOFOLD_CHECKPOINT_INTERVAL_S: '0.5',
+			TWOFOLD_STALE_AFTER_S: '2',
+			...env
+		},
+		stdio: ['ignore', 'pipe', 'pipe']
+	});
+	child.stdout?.on('data', (d) => (log += d));
+	child.stderr?.on('data', (d) => (log += d));
+	const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
+	const w: WorkerProcess = {
+		child,
+		output: () => log,
+		async stop() {
+			if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+			return exited;
+		},
+		async kill() {
+			if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
+			await exited;
+		}
+	};
+	workers.push(w);
+	await waitFor(() => log.includes('working solve-run'), { timeoutMs: 30_000, what: `worker start:\n${log}` });
+	return w;
+}
+
+// ------------------------------------------------------------------ small helpers
+
+async function waitFor<T>(probe: () => T | Promise<T>, o: { timeoutMs?: number; what: string; everyMs?: number }): Promise<NonNullable<T>> {
+	const deadline = Date.now() + (o.timeoutMs ?? 30_000);
+	for (;;) {
+		const v = await probe();
+		if (v) return v as NonNullable<T>;
+		if (Date.now() > deadline) throw new Error(`timed out waiting for ${o.what}`);
+		await new Promise((r) => setTimeout(r, o.everyMs ?? 50));
+	}
+}
+
+interface SseEvent {
+	id: string;
+	event: string;
+	data: any; // eslint-disable-line @typescript-eslint/no-explicit-any
+}
+
+/** Reads an SSE response until `until(event)` is true or the stream is aborted; returns the events read. */
+async function readSse(o: { client: TestClient; path: string; lastEventId?: string; until: (e: SseEvent, all: SseEvent[]) => boolean; timeoutMs?: number }): Promise<SseEvent[]> {
+	const controller = new AbortController();
+	const timer = setTimeout(() => controller.abort(), o.timeoutMs ?? 60_000);
+	const headers: Record<string, string> = { accept: 'text/event-stream', cookie: [...o.client.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
+	if (o.lastEventId) headers['last-event-id'] = o.lastEventId;
+	const res = await fetch(new URL(o.path, o.client.baseUrl), { headers, signal: controller.signal });
+	expect(res.status).toBe(200);
+	expect(res.headers.get('content-type')).toContain('text/event-stream');
+	const events: SseEvent[] = [];
+	const decoder = new TextDecoder();
+	let buffer = '';
+	try {
+		for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
+			buffer += decoder.decode(chunk, { stream: true });
+			let cut: number;
+			while ((cut = buffer.indexOf('\n\n')) >= 0) {
+				const block = buffer.slice(0, cut);
+				buffer = buffer.slice(cut + 2);
+				const e: Partial<SseEvent> = {};
+				for (const line of block.split('\n')) {
+					if (line.startsWith('id: ')) e.id = line.slice(4);
+					else if (line.startsWith('event: ')) e.event = line.slice(7);
+					else if (line.startsWith('data: ')) e.data = JSON.parse(line.slice(6));
+				}
+				if (!e.event) continue;
+				events.push(e as SseEvent);
+				if (o.until(e as SseEvent, events)) {
+					controller.abort();
+					return events;
+				}
+			}
+		}
+	} catch (err) {
+		if (!controller.signal.aborted) throw err;
+		if (!events.length || !o.until(events[events.length - 1], events)) throw new Error(`SSE stream timed out after ${events.length} events`);
+	} finally {
+		clearTimeout(timer);
+	}
+	return events;
+}
+
+const ENDED = ['converged', 'finished', 'failed', 'cancelled'];
+const isFinalStatus = (e: SseEvent) => e.event === 'status' && ENDED.includes(e.data.status);
+
+// ------------------------------------------------------------------ the suite
+
+let app: RunningApp;
+let handle: DbHandle;
+let teamA: TestTeam;
+let teamB: TestTeam;
+let columnId: string;
+let analyst: TestClient;
+let viewer: TestClient;
+let otherViewer: TestClient;
+let otherAnalyst: TestClient;
+
+async function storeCase(doc: CaseDocument): Promise<string> {
+	const [row] = await handle.db
+		.insert(cases)
+		.values({ teamId: teamA.team.id, columnId, name: doc.name, kind: doc.kind, schemaVersion: doc.schemaVersion, document: doc })
+		.returning({ id: cases.id });
+	return row.id;
+}
+
+async function queueOverHttp(doc: CaseDocument): Promise<string> {
+	const caseId = await storeCase(doc);
+	const res = await analyst.postJson('/runs', { caseId });
+	expect(res.status, await res.clone().text()).toBe(201);
+	return ((await res.json()) as { run: { id: string } }).run.id;
+}
+
+async function getRunRow(runId: string) {
+	const [row] = await handle.db.select().from(runs).where(eq(runs.id, runId));
+	return row;
+}
+
+async function waitForStatus(runId: string, statuses: string[], timeoutMs = 60_000) {
+	return waitFor(async () => {
+		const r = await getRunRow(runId);
+		return statuses.includes(r.status) ? r : null;
+	}, { timeoutMs, what: `run ${runId} to reach ${statuses.join('/')}` });
+}
+
+async function storedSteps(runId: string): Promise<number[]> {
+	const rows = await handle.db.select({ step: residuals.step }).from(residuals).where(eq(residuals.runId, runId)).orderBy(asc(residuals.step));
+	return rows.map((r) => r.step);
+}
+
+function expectedSteps(lastStep: number): number[] {
+	const steps: number[] = [];
+	for (let s = 1; s <= lastStep; s++) if (s === lastStep || storesResidualStep(s)) steps.push(s);
+	return steps;
+}
+
+beforeAll(async () => {
+	handle = await openTestDb();
+	app = await startApp();
+	teamA = await createTestTeam({ db: handle.db, name: 'Runs team A' });
+	teamB = await createTestTeam({ db: handle.db, name: 'Runs team B' });
+	// room for the twenty-run test; the limit itself is tested with a lower value below
+	await handle.db.update(teams).set({ maxActiveRuns: 50 }).where(eq(teams.id, teamA.team.id));
+	const [col] = await handle.db.insert(columns).values({ teamId: teamA.team.id, tag: 'R-101', diameterM: 0.2, heightM: 1 }).returning({ id: columns.id });
+	columnId = col.id;
+	analyst = await signedInClient(app.baseUrl, teamA.members.analyst);
+	viewer = await signedInClient(app.baseUrl, teamA.members.viewer);
+	otherViewer = await signedInClient(app.baseUrl, teamB.members.viewer);
+	otherAnalyst = await signedInClient(app.baseUrl, teamB.members.analyst);
+}, 180_000);
+
+afterAll(async () => {
+	await Promise.all(workers.map((w) => w.kill()));
+	await app?.stop();
+	await handle?.close();
+});
+
+describe('runs as queued jobs', () => {
+	let firstRunId = '';
+
+	it('queues a small case, which converges with its residuals, snapshots, summary, live events and e-mail stored', async () => {
+		const worker = await startWorker(app);
+		const since = new Date();
+		const doc = smallCase();
+		const runId = await queueOverHttp(doc);
+		firstRunId = runId;
+		// a viewer follows the run live from the moment it is queued
+		const events = await readSse({ client: viewer, path: `/runs/${runId}/events`, until: isFinalStatus });
+		const done = await getRunRow(runId);
+		expect(done.status, worker.output()).toBe('converged');
+
+		// the stored outcome is exactly what the solver library computes for this case
+		const reference = solveHere(doc);
+		expect(reference.results.status).toBe('converged');
+		const { profiles, ...summary } = reference.results;
+		expect(done.summary).toEqual(JSON.parse(JSON.stringify(summary)));
+		expect(done.steps).toBe(reference.results.step);
+		expect(done.attempts).toBe(1);
+		expect(done.solverVersion).toMatch(/\d/);
+
+		// one residual row per stored step, no gap, values as computed
+		const steps = await storedSteps(runId);
+		expect(steps).toEqual(expectedSteps(reference.results.step));
+		const [someRow] = await handle.db
+			.select()
+			.from(residuals)
+			.where(and(eq(residuals.runId, runId), eq(residuals.step, Math.min(100, reference.results.step))));
+		expect(someRow.values).toEqual(reference.residualsByStep.get(someRow.step));
+
+		// periodic snapshots (interval 1 s of simulated time) and the final one, bit-identical profiles
+		const snaps = await handle.db.select().from(snapshots).where(eq(snapshots.runId, runId)).orderBy(asc(snapshots.step));
+		expect(snaps.length).toBeGreaterThanOrEqual(Math.floor(reference.results.timeS / doc.numerics.snapshotIntervalS));
+		expect(snaps.filter((s) => s.isFinal)).toHaveLength(1);
+		const final = snaps[snaps.length - 1];
+		expect(final.isFinal).toBe(true);
+		expect(Buffer.compare(final.data, Buffer.from(encodeSnapshot(profiles)))).toBe(0);
+		expect(Array.from(decodeSnapshot(final.data).fields.holdup)).toEqual(Array.from(profiles.fields.holdup));
+		const [{ checkpointRows }] = await handle.db.select({ checkpointRows: sql<number>`count(*)::int` }).from(checkpoints).where(eq(checkpoints.runId, runId));
+		expect(checkpointRows).toBe(0);
+
+		// the stream: residual events before the end, the final status last, every point exactly once
+		const lastIndex = events.length - 1;
+		expect(events[lastIndex].event).toBe('status');
+		expect(events[lastIndex].data.status).toBe('converged');
+		const firstResiduals = events.findIndex((e) => e.event === 'residuals');
+		expect(firstResiduals).toBeGreaterThanOrEqual(0);
+		expect(firstResiduals).toBeLessThan(lastIndex);
+		const streamed = events.filter((e) => e.event === 'residuals').flatMap((e) => e.data.points.map((p: { step: number }) => p.step));
+		expect(streamed).toEqual(steps);
+		expect(events.some((e) => e.event === 'snapshot')).toBe(true);
+		expect(events.some((e) => e.event === 'progress')).toBe(true);
+
+		// whoever queued it gets the e-mail
+		const mail = await waitForMail({ db: handle.db, to: teamA.members.analyst.email, since });
+		expect(mail.subject).toContain('converged');
+		expect(mail.text).toContain(`/runs/${runId}`);
+		expect(await worker.stop()).toBe(0);
+	});
+
+	it('serves the history and a snapshot to a viewer of the team, and 404 to another team', async () => {
+		const res = await viewer.get(`/runs/${firstRunId}/history`, { accept: 'application/json' });
+		expect(res.status).toBe(200);
+		const history = (await res.json()) as { run: { status: string }; residuals: { step: number }[]; snapshots: { id: number; isFinal: boolean }[]; cursor: string };
+		expect(history.run.status).toBe('converged');
+		expect(history.residuals.map((r) => r.step)).toEqual(await storedSteps(firstRunId));
+		const final = history.snapshots.find((s) => s.isFinal)!;
+		const snap = await viewer.get(`/runs/${firstRunId}/snapshots/${final.id}`, { accept: 'application/json' });
+		expect(snap.status).toBe(200);
+		const body = (await snap.json()) as { fields: Record<string, number[]>; x: number[] };
+		expect(body.fields.holdup).toHaveLength(40);
+		expect(body.x).toHaveLength(40);
+
+		// another team's viewer learns nothing: 404 on every run route
+		for (const p of [`/runs/${firstRunId}/events`, `/runs/${firstRunId}/history`, `/runs/${firstRunId}/snapshots/${final.id}`]) {
+			expect((await otherViewer.get(p, { accept: 'application/json' })).status, p).toBe(404);
+		}
+		expect((await otherAnalyst.postJson(`/runs/${firstRunId}/cancel`, {})).status).toBe(404);
+		expect((await otherAnalyst.postJson(`/runs/${firstRunId}/rerun`, {})).status).toBe(404);
+		// a viewer may watch but not queue; anonymous gets 401
+		const caseId = await storeCase(smallCase('not for viewers'));
+		expect((await viewer.postJson('/runs', { caseId })).status).toBe(403);
+		expect((await viewer.postJson(`/runs/${firstRunId}/rerun`, {})).status).toBe(403);
+		expect((await new TestClient(app.baseUrl).get(`/runs/${firstRunId}/events`, { accept: 'text/event-stream' })).status).toBe(401);
+		// after the history's cursor, an ended run's stream has nothing more to say
+		const after = await readSse({ client: viewer, path: `/runs/${firstRunId}/events?after=${history.cursor}`, until: () => false, timeoutMs: 1500 }).catch((e: Error) => e);
+		expect(after).toBeInstanceOf(Error);
+		expect((after as Error).message).toContain('after 0 events');
+	});
+
+	it('resumes a run from its checkpoint after its worker is killed, with the results of an uninterrupted run and no duplicate steps; the live stream resumes after Last-Event-ID', async () => {
+		const doc = referenceCase('crash');
+		const reference = solveHere(doc);
+		expect(['converged', 'finished']).toContain(reference.results.status);
+		const first = await startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
+		const runId = await queueOverHttp(doc);
+
+		// a viewer follows, then drops the connection part-way
+		const before = await readSse({ client: viewer, path: `/runs/${runId}/events`, until: (_e, all) => all.filter((x) => x.event === 'residuals').length >= 3 });
+		const lastEventId = before[before.length - 1].id;
+
+		// kill the worker once a checkpoint past a third of the run is stored
+		const cp = await waitFor(
+			async () => {
+				const [row] = await handle.db.select({ step: checkpoints.step }).from(checkpoints).where(eq(checkpoints.runId, runId));
+				return row && row.step > reference.results.step / 3 ? row : null;
+			},
+			{ what: 'a checkpoint past a third of the run', timeoutMs: 60_000, everyMs: 20 }
+		);
+		await first.kill();
+		const killedAt = await getRunRow(runId);
+		expect(killedAt.status).toBe('running');
+		expect(killedAt.steps).toBeLessThan(reference.results.step);
+
+		const second = await startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
+		// the viewer reconnects with the last id it saw and reads to the end
+		const afterEvents = await readSse({ client: viewer, path: `/runs/${runId}/events`, lastEventId, until: isFinalStatus, timeoutMs: 90_000 });
+		const done = await getRunRow(runId);
+		expect(done.status, second.output()).toBe(reference.results.status);
+		expect(done.attempts).toBe(2);
+		expect(second.output()).toContain(`run ${runId}: attempt 2 resumes from its checkpoint`);
+		expect(cp.step).toBeGreaterThan(0);
+
+		// identical to the uninterrupted run
+		const { profiles, ...summary } = reference.results;
+		expect(done.summary).toEqual(JSON.parse(JSON.stringify(summary)));
+		const [final] = await handle.db.select().from(snapshots).where(and(eq(snapshots.runId, runId), eq(snapshots.isFinal, true)));
+		expect(Buffer.compare(final.data, Buffer.from(encodeSnapshot(profiles)))).toBe(0);
+
+		// residual rows: each stored step once, none missing, values as uninterrupted
+		const steps = await storedSteps(runId);
+		expect(steps).toEqual(expectedSteps(reference.results.step));
+		const rows = await handle.db.select().from(residuals).where(eq(residuals.runId, runId)).orderBy(asc(residuals.step));
+		for (const row of rows) expect(row.values, `step ${row.step}`).toEqual(reference.residualsByStep.get(row.step));
+		// snapshots: one per interval crossing plus the final one, none twice
+		const snaps = await handle.db.select({ step: snapshots.step }).from(snapshots).where(eq(snapshots.runId, runId));
+		expect(new Set(snaps.map((s) => s.step)).size).toBe(snaps.length);
+		expect(snaps.length).toBeGreaterThanOrEqual(Math.floor(reference.results.timeS / doc.numerics.snapshotIntervalS));
+
+		// the stream across the reconnect: every point exactly once, ids monotonic
+		const streamed = [...before, ...afterEvents].filter((e) => e.event === 'residuals').flatMap((e) => e.data.points.map((p: { step: number }) => p.step));
+		expect(streamed).toEqual(steps);
+		const statuses = afterEvents.filter((e) => e.event === 'status').map((e) => e.data.status);
+		expect(statuses[statuses.length - 1]).toBe(reference.results.status);
+		const ids = [...before, ...afterEvents].map((e) => e.id.split('.').map(Number));
+		for (let i = 1; i < ids.length; i++) for (let k = 0; k < 3; k++) expect(ids[i][k]).toBeGreaterThanOrEqual(ids[i - 1][k]);
+	});
+
+	it('on SIGTERM checkpoints the running run and hands it back, and another worker finishes it', async () => {
+		const current = workers[workers.length - 1];
+		const doc = referenceCase('graceful');
+		const runId = await queueOverHttp(doc);
+		await waitFor(async () => ((await getRunRow(runId)).steps > 50 ? true : null), { what: 'the run to make progress' });
+		expect(await current.stop(), current.output()).toBe(0);
+		const released = await getRunRow(runId);
+		expect(released.status, current.output()).toBe('queued');
+		const [cp] = await handle.db.select().from(checkpoints).where(eq(checkpoints.runId, runId));
+		expect(cp.step).toBeGreaterThan(50);
+		const next = await startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
+		const done = await waitForStatus(runId, ENDED, 90_000);
+		expect(['converged', 'finished'], next.output()).toContain(done.status);
+		expect(done.attempts).toBe(2);
+		expect(next.output()).toContain(`run ${runId}: attempt 2 resumes from its checkpoint`);
+		expect(await storedSteps(runId)).toEqual(expectedSteps(done.steps));
+	});
+
+	it('cancels a running run within two seconds, and the worker takes the next job', async () => {
+		const runId = await queueOverHttp(referenceCase('to cancel'));
+		await waitFor(async () => ((await getRunRow(runId)).steps > 0 ? true : null), { what: 'the run to make progress' });
+		const t0 = Date.now();
+		const res = await analyst.postJson(`/runs/${runId}/cancel`, {});
+		expect(res.status).toBe(200);
+		const done = await waitForStatus(runId, ENDED, 5000);
+		const elapsedMs = Date.now() - t0;
+		expect(done.status).toBe('cancelled');
+		expect(elapsedMs).toBeLessThan(2000);
+		expect(done.errorMessage).toMatch(/^Cancelled at simulated time/);
+		const next = await queueOverHttp(smallCase('after the cancel'));
+		expect((await waitForStatus(next, ENDED)).status).toBe('converged');
+	});
+
+	it('fails a diverging run and a run past its wall-time limit with readable reasons, and keeps serving', async () => {
+		const diverging = await queueOverHttp(divergingCase());
+		const d = await waitForStatus(diverging, ENDED);
+		expect(d.status).toBe('failed');
+		// the solver's message names the cell and the simulated time
+		expect(d.errorMessage).toMatch(/cell \d+/);
+		expect(d.errorMessage).toMatch(/t = [\d.]+ s/);
+		expect(d.attempts).toBe(1);
+
+		const slow = referenceCase('too slow');
+		slow.numerics.wallTimeLimitS = 1;
+		const limited = await queueOverHttp(slow);
+		const l = await waitForStatus(limited, ENDED);
+		expect(l.status).toBe('failed');
+		expect(l.errorMessage).toContain('wall-time limit of 1 s');
+		expect(l.wallTimeS).toBeGreaterThanOrEqual(1);
+		expect(l.wallTimeS).toBeLessThan(2.5);
+
+		const next = await queueOverHttp(smallCase('after the failures'));
+		expect((await waitForStatus(next, ENDED)).status).toBe('converged');
+	});
+
+	it('refuses a run past the team limit with a clear message, and sends no mail to a member who muted run mail', async () => {
+		await handle.db.update(teams).set({ maxActiveRuns: 1 }).where(eq(teams.id, teamA.team.id));
+		await handle.db.update(memberships).set({ muteRunMail: true }).where(and(eq(memberships.teamId, teamA.team.id), eq(memberships.userId, teamA.members.analyst.id)));
+		try {
+			const first = await queueOverHttp(referenceCase('first of two'));
+			const caseId = await storeCase(smallCase('second of two'));
+			const res = await analyst.postJson('/runs', { caseId });
+			expect(res.status).toBe(429);
+			expect(((await res.json()) as { message: string }).message).toMatch(/already has 1 run queued or running, the most it may have at once \(1\)/);
+			await analyst.postJson(`/runs/${first}/cancel`, {});
+			await waitForStatus(first, ENDED, 5000);
+			const again = await analyst.postJson('/runs', { caseId });
+			expect(again.status).toBe(201);
+			const second = ((await again.json()) as { run: { id: string } }).run.id;
+			await waitForStatus(second, ENDED);
+			await new Promise((r) => setTimeout(r, 1000));
+			const mails = await handle.db
+				.select({ id: outgoingMail.id })
+				.from(outgoingMail)
+				.where(sql`${outgoingMail.text} like ${`%/runs/${first}%`} or ${outgoingMail.text} like ${`%/runs/${second}%`}`);
+			expect(mails).toHaveLength(0);
+		} finally {
+			await handle.db.update(teams).set({ maxActiveRuns: 50 }).where(eq(teams.id, teamA.team.id));
+			await handle.db.update(memberships).set({ muteRunMail: false }).where(eq(memberships.teamId, teamA.team.id));
+		}
+	});
+
+	it('shares twenty queued runs between two workers, each run worked exactly once', async () => {
+		await Promise.all(workers.map((w) => w.stop()));
+		const [one, two] = await Promise.all([startWorker(app), startWorker(app)]);
+		const ids: string[] = [];
+		for (let i = 0; i < 20; i++) ids.push(await queueOverHttp(smallCase(`batch ${i + 1}`)));
+		await waitFor(
+			async () => {
+				const rows = await handle.db.select({ status: runs.status }).from(runs).where(inArray(runs.id, ids));
+				return rows.every((r) => ENDED.includes(r.status));
+			},
+			{ what: 'twenty runs to end', timeoutMs: 100_000, everyMs: 200 }
+		);
+		const rows = await handle.db.select().from(runs).where(inArray(runs.id, ids));
+		expect(rows.map((r) => r.status)).toEqual(Array(20).fill('converged'));
+		expect(rows.map((r) => r.attempts)).toEqual(Array(20).fill(1));
+		const logs = one.output() + two.output();
+		for (const id of ids) expect(logs.split(`run ${id}: attempt 1 starts`).length - 1, id).toBe(1);
+		// both processes took part
+		expect(new Set(rows.map((r) => r.workerId)).size).toBe(2);
+		// and all twenty agree (same case, same numbers)
+		expect(new Set(rows.map((r) => JSON.stringify(r.summary))).size).toBe(1);
+		// pg-boss marks a job completed just after its handler returns
+		await waitFor(
+			async () => {
+				const { rows: r } = await handle.pool.query(
+					`select count(*)::int as jobs from pgboss.job where name = 'solve-run' and data->>'runId' = any($1) and state = 'completed'`,
+					[ids]
+				);
+				return r[0].jobs === 20;
+			},
+			{ what: 'twenty completed jobs', timeoutMs: 5000 }
+		);
+	});
+});

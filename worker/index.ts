@@ -1,0 +1,96 @@
+/**
+ * The Twofold worker process: works the `solve-run` queue. Start it with `npm run worker`
+ * (`npm start` starts one beside the app). Any number of worker processes on any machines may
+ * share one database; PostgreSQL is the only coordination point.
+ *
+ * Environment:
+ *   DATABASE_URL                     the app's database (required outside the local default)
+ *   TWOFOLD_WORKER_CONCURRENCY       runs worked at once by this process (default: CPU cores);
+ *                                    each slot steps its runs on its own thread
+ *   TWOFOLD_WORKER_POLL_S            how often an idle slot asks for a job (default 0.5 s)
+ *   TWOFOLD_CHECKPOINT_INTERVAL_S    wall time between checkpoints of a run (default 3 s)
+ *   TWOFOLD_STALE_AFTER_S            heartbeat age after which a run counts as orphaned (default 5 s)
+ *   TWOFOLD_WORKER_STEP_PAUSE_MS     pause after every solver step (default 0): slow motion for
+ *                                    tests and demos of crash, cancel and wall-time handling; it
+ *                                    changes wall time only, never results. Not for production.
+ *   SMTP_HOST, SMTP_PORT, ORIGIN     run-ended e-mail and the link in it
+ *
+ * SIGTERM / SIGINT: stop taking jobs, checkpoint every run in progress and hand it back to the
+ * queue, then exit.
+ */
+import os from 'node:os';
+import { randomBytes } from 'node:crypto';
+import { createDb, DEFAULT_DATABASE_URL } from '../src/lib/server/db/index.js';
+import { createBoss, ensureQueue, SOLVE_QUEUE, type SolveJobData } from '../src/lib/server/runs/jobs.js';
+import { solveJob, type ActiveRun, type SolveContext } from './jobs/solve.js';
+import { startSweeper } from './sweeper.js';
+import { createSolverPool } from './jobs/solver-pool.js';
+
+function numberFromEnv(name: string, fallback: number, min: number): number {
+	const raw = process.env[name];
+	if (raw === undefined || raw === '') return fallback;
+	const value = Number(raw);
+	if (!Number.isFinite(value) || value < min) throw new Error(`${name} must be a number of at least ${min}, not "${raw}"`);
+	return value;
+}
+
+async function main() {
+	const url = process.env.DATABASE_URL ?? DEFAULT_DATABASE_URL;
+	const concurrency = Math.floor(numberFromEnv('TWOFOLD_WORKER_CONCURRENCY', os.availableParallelism(), 1));
+	const pollS = numberFromEnv('TWOFOLD_WORKER_POLL_S', 0.5, 0.5);
+	const checkpointIntervalS = numberFromEnv('TWOFOLD_CHECKPOINT_INTERVAL_S', 3, 0.1);
+	const staleAfterS = numberFromEnv('TWOFOLD_STALE_AFTER_S', 5, 1);
+	const stepPauseMs = numberFromEnv('TWOFOLD_WORKER_STEP_PAUSE_MS', 0, 0);
+	const workerId = `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
+	const log = (message: string) => console.log(`[worker ${workerId}] ${message}`);
+
+	// one connection per run slot for its writes, plus a few for claims, sweeps and mail
+	const handle = createDb({ url, max: concurrency + 3, applicationName: 'twofold-worker' });
+	const boss = createBoss({ url, role: 'worker', max: 2 + Math.ceil(concurrency / 2) });
+	boss.on('error', (e) => log(`pg-boss: ${e.message}`));
+	await boss.start();
+	await ensureQueue(boss);
+
+	const pool = createSolverPool(concurrency);
+	const active = new Set<ActiveRun>();
+	let stopping = false;
+	const ctx: SolveContext = { handle, boss, workerId, flushIntervalMs: 100, checkpointIntervalS, stepPauseMs, pool, active, isStopping: () => stopping, log };
+
+	// pg-boss 10 works one batch per `work` call: `concurrency` calls of batch size 1 = that many runs at once
+	for (let i = 0; i < concurrency; i++) {
+		await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS }, async ([job]) => {
+			await solveJob(ctx, job);
+		});
+	}
+	const sweeper = startSweeper({ handle, boss, staleAfterS, intervalMs: 1000, maxAttempts: 5, log });
+	log(`working ${SOLVE_QUEUE} with ${concurrency} slot(s)`);
+
+	const shutdown = async (signal: string) => {
+		if (stopping) return;
+		stopping = true;
+		log(`${signal}: checkpointing ${active.size} run(s) and stopping`);
+		const timeoutMs = 20_000;
+		const force = setTimeout(() => process.exit(1), timeoutMs + 5_000);
+		force.unref();
+		try {
+			for (const run of active) run.requestShutdown();
+			await sweeper.stop();
+			// waits for the handlers, which now checkpoint and release their runs
+			await boss.stop({ graceful: true, wait: true, timeout: timeoutMs });
+			await pool.close();
+			await handle.close();
+			log('stopped');
+			process.exit(0);
+		} catch (e) {
+			log(`unclean stop: ${(e as Error).message}`);
+			process.exit(1);
+		}
+	};
+	process.on('SIGTERM', () => void shutdown('SIGTERM'));
+	process.on('SIGINT', () => void shutdown('SIGINT'));
+}
+
+main().catch((e) => {
+	console.error('[worker] failed to start:', e);
+	process.exit(1);
+});
