@@ -324,16 +324,17 @@ async function withTestLock(fn) {
 }
 
 function ensureChromium() {
-	if (fs.existsSync(CHROMIUM)) return true;
+	if (fs.existsSync(CHROMIUM) && fs.existsSync('/usr/bin/pdftotext')) return true;
 	if (!isRoot) {
-		say(`Chromium is missing (${CHROMIUM}): install it with  sudo apt-get install -y chromium`);
+		say(`Chromium (${CHROMIUM}) or pdftotext is missing: install them with  sudo apt-get install -y chromium poppler-utils`);
 		return false;
 	}
 	const t0 = Date.now();
 	say('installing Debian chromium for the browser tests');
 	const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
 	run('apt-get', ['update', '-qq'], { env });
-	run('apt-get', ['install', '-y', '-qq', 'chromium'], { env });
+	// poppler-utils: the printable-report test reads its PDF back with pdftotext
+	run('apt-get', ['install', '-y', '-qq', 'chromium', 'poppler-utils'], { env });
 	say(`chromium installed in ${seconds(t0)}`);
 	return fs.existsSync(CHROMIUM);
 }
