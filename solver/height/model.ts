@@ -578,18 +578,20 @@ export class HeightModel {
 		const { n } = this;
 		const lf = this.liquidFraction;
 		const p = this.pressure;
-		const t = this.timeS.toFixed(4);
+		const where = (i: number) => `cell ${i} (z = ${this.zCentre[i].toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
 		for (let i = 0; i < n; i++) {
-			const z = this.zCentre[i].toFixed(3);
 			const a = 1 - lf[i];
-			if (!Number.isFinite(a)) return `holdup is not a number in cell ${i} (z = ${z} m) at t = ${t} s`;
-			if (!Number.isFinite(p[i])) return `pressure is not a number in cell ${i} (z = ${z} m) at t = ${t} s`;
-			if (a < -1e-9 || a > 1 + 1e-9) return `holdup ${a.toPrecision(6)} is outside [0, 1] in cell ${i} (z = ${z} m) at t = ${t} s`;
-			if (!(p[i] > 0)) return `pressure ${p[i].toPrecision(6)} Pa is not positive in cell ${i} (z = ${z} m) at t = ${t} s`;
+			const pi = p[i];
+			// one comparison chain for the common case; messages are built only on failure
+			if (a >= -1e-9 && a <= 1 + 1e-9 && pi > 0 && pi < Number.POSITIVE_INFINITY) continue;
+			if (!Number.isFinite(a)) return `holdup is not a number in ${where(i)}`;
+			if (!Number.isFinite(pi)) return `pressure is not a number in ${where(i)}`;
+			if (a < -1e-9 || a > 1 + 1e-9) return `holdup ${a.toPrecision(6)} is outside [0, 1] in ${where(i)}`;
+			return `pressure ${pi.toPrecision(6)} Pa is not positive in ${where(i)}`;
 		}
 		for (let j = 0; j <= n; j++) {
 			if (!Number.isFinite(this.gasVelocity[j]) || !Number.isFinite(this.liquidVelocity[j])) {
-				return `${Number.isFinite(this.gasVelocity[j]) ? 'liquid' : 'gas'} velocity is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${t} s`;
+				return `${Number.isFinite(this.gasVelocity[j]) ? 'liquid' : 'gas'} velocity is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
 			}
 		}
 		return null;
