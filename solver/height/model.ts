@@ -340,7 +340,7 @@ export class HeightModel {
 				cvm = (0.5 * (1 + 2 * ac)) / (1 - ac);
 			}
 			const v = cvm * ((1 - w) * ag * rl + w * alq * rgf);
-			// interfacial pressure term, explicit
+			// interfacial pressure Δp_i = C_p ρ_l u_r² (PHYSICS §3.2) and the wall friction of the liquid
 			const dadz = isTop ? 0 : (lf[below] - lf[j]) / dz;
 			const dpi = cp * rl * ur * ur;
 			const lam = frictionOn
