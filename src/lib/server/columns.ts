@@ -34,8 +34,10 @@ export type ColumnSort = (typeof SORTABLE)[number];
 
 export async function listColumns(options: { teamId: string; sort?: ColumnSort; descending?: boolean; filter?: string }) {
 	const sortColumn = columns[options.sort ?? 'tag'];
+	// the filter is plain text: % and _ match themselves, not any characters
+	const pattern = `%${(options.filter ?? '').replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 	const where = options.filter
-		? and(eq(columns.teamId, options.teamId), or(ilike(columns.tag, `%${options.filter}%`), ilike(columns.service, `%${options.filter}%`)))
+		? and(eq(columns.teamId, options.teamId), or(ilike(columns.tag, pattern), ilike(columns.service, pattern)))
 		: eq(columns.teamId, options.teamId);
 	return db
 		.select()
