@@ -3,6 +3,7 @@
  */
 import type { CaseDocument } from './case.js';
 import { eotvosNumber, terminalVelocity } from './closures/drag.js';
+import { hyperbolicityLimitHoldup, virtualMassCoefficient } from './closures/virtual-mass.js';
 import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
 import { regimeFromBand } from './correlations/regime.js';
 import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
@@ -29,6 +30,11 @@ export interface DerivedNumbers {
 	cellSizeM: number;
 	/** first time step from the material CFL with the terminal velocity as the velocity scale, s */
 	firstTimeStepS: number;
+	/**
+	 * largest holdup up to which the model with this virtual-mass and interfacial-pressure choice is
+	 * hyperbolic (ρ_g → 0, PHYSICS §3.3); 1 = everywhere. Above it the model is not well-posed.
+	 */
+	wellPosedUpToHoldup: number;
 }
 
 export function spargerPressurePaAtRest(c: CaseDocument): number {
@@ -82,6 +88,11 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 		regime: regime.value,
 		regimeLabel: regime.label,
 		cellSizeM: dz,
-		firstTimeStepS: (c.numerics.cflNumber * dz) / Math.max(ut + Math.abs(c.sparging.superficialLiquidVelocityMS) + massFlux / rhoTop, 1e-3)
+		firstTimeStepS: (c.numerics.cflNumber * dz) / Math.max(ut + Math.abs(c.sparging.superficialLiquidVelocityMS) + massFlux / rhoTop, 1e-3),
+		// Zuber's C_VM grows with α; its value at α = 0.3 stands for the range where the limit matters
+		wellPosedUpToHoldup: hyperbolicityLimitHoldup({
+			virtualMassCoefficient: virtualMassCoefficient({ model: c.closures.virtualMass, holdup: 0.3, constant: c.closures.virtualMassCoefficient }),
+			interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient
+		})
 	};
 }

@@ -23,6 +23,9 @@ import { regimeFromBand } from '../correlations/regime.js';
 
 export const HEIGHT_MODEL_VERSION = 'height-1.0.0';
 
+/** The status record of an ordinary step, shared so a running simulation allocates nothing per step. */
+const RUNNING: StepStatus = Object.freeze({ status: 'running' });
+
 /** Stable residual ids of the height-profile model (database and chart keys). */
 export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'holdupChangeRate', 'overallHoldupChange', 'liquidCentreRate'] as const;
 
@@ -104,6 +107,7 @@ class HeightSimulationImpl implements HeightSimulation {
 			const span = m.timeS - this.winStartS;
 			if (span >= this.cfg.steadyWindowS * (1 - 1e-9)) this.closeWindow(span);
 		}
+		if (m.status === 'running') return RUNNING;
 		return m.message ? { status: m.status, message: m.message } : { status: m.status };
 	}
 

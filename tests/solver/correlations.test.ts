@@ -106,5 +106,7 @@ describe('fluid presets and derived numbers', () => {
 		// sparger pressure at rest: 101325 + 998.2·9.81·1.5 Pa
 		expect(rel(rhoSp, idealGasDensity({ pressurePa: 101325 + 998.2 * 9.81 * 1.5, molarMassKgMol: 0.02896, temperatureK: 293.15 }))).toBeLessThan(1e-12);
 		expect(d.firstTimeStepS).toBeGreaterThan(0);
+		// PHYSICS §15 #13: C_VM = 0.5, C_p = 0.25 is well-posed up to α = 1 − 1/√2
+		expect(d.wellPosedUpToHoldup).toBeCloseTo(1 - Math.SQRT1_2, 4);
 	});
 });
