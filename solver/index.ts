@@ -13,8 +13,7 @@ export { fluidPresets, findFluidPreset, applyFluidPreset, type FluidPreset } fro
 export { closureCatalog, type CatalogEntry } from './closures/catalog.js';
 export { residualNames as heightResidualNames } from './height/simulation.js';
 
-/** Version of the numerical model; stored with every run so results stay reproducible. */
-export const SOLVER_VERSION = '1.0.0';
+export { SOLVER_VERSION } from './version.js';
 
 /** Thrown when a case fails validation; `issues` name the field and the limit. */
 export class InvalidCaseError extends Error {

@@ -20,8 +20,9 @@ import { akitaYoshidaHoldup, hughmarkHoldup } from '../correlations/holdup.js';
 import { zuberFindlayHoldup } from '../correlations/drift-flux.js';
 import { higbieMassTransferCoefficient } from '../correlations/mass-transfer.js';
 import { regimeFromBand } from '../correlations/regime.js';
+import { SOLVER_VERSION } from '../version.js';
 
-export const HEIGHT_MODEL_VERSION = 'height-1.0.0';
+export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
 /** The status record of an ordinary step, shared so a running simulation allocates nothing per step. */
 const RUNNING: StepStatus = Object.freeze({ status: 'running' });
@@ -266,6 +267,8 @@ class HeightSimulationImpl implements HeightSimulation {
 		const m = this.model;
 		const d = cp.data;
 		if (cp.kind !== 'height-profile') throw new Error(`Checkpoint of a ${cp.kind} run cannot restore a height-profile simulation`);
+		// continuing bit-identically needs the very same numerics
+		if (cp.solverVersion !== SOLVER_VERSION) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 		if (d.cells !== m.n) throw new Error(`Checkpoint has ${String(d.cells)} cells, this case has ${m.n}`);
 		const arr = (name: string, into: Float64Array) => {
 			const v = d[name];

@@ -53,6 +53,12 @@ describe('checkpoint and restore', () => {
 		expect(SOLVER_VERSION).toMatch(/^\d+\.\d+\.\d+$/);
 	});
 
+	it('refuses a checkpoint written by another solver version', () => {
+		const sim = createSimulation(defaultCase());
+		const cp = { ...sim.checkpoint(), solverVersion: '0.0.1' };
+		expect(() => createSimulation(defaultCase()).restore(cp)).toThrow(/solver 0\.0\.1 cannot continue/);
+	});
+
 	it('refuses a checkpoint of another grid', () => {
 		const sim = createSimulation(defaultCase());
 		const other = defaultCase();
