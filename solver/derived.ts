@@ -35,6 +35,8 @@ export interface DerivedNumbers {
 	 * hyperbolic (ρ_g → 0, PHYSICS §3.3); 1 = everywhere. Above it the model is not well-posed.
 	 */
 	wellPosedUpToHoldup: number;
+	/** plain-language cautions about the closure choice for this case (empty when none apply) */
+	warnings: string[];
 }
 
 export function spargerPressurePaAtRest(c: CaseDocument): number {
@@ -75,12 +77,24 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	const massFlux = gasMassFlux(c);
 	const regime = regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
 	const dz = c.geometry.heightM / c.numerics.cells;
+	const terminalReynolds = (l.densityKgM3 * ut * d) / l.viscosityPaS;
+	const warnings: string[] = [];
+	if (c.closures.drag === 'stokes' && terminalReynolds > 1) {
+		warnings.push(`Stokes drag is valid for Re ≲ 0.1; this bubble rises at Re ≈ ${terminalReynolds.toPrecision(2)}, so its terminal velocity (${ut.toPrecision(3)} m/s) is far too high`);
+	}
+	const vm = c.closures.virtualMass === 'none' || (c.closures.virtualMass === 'constant' && c.closures.virtualMassCoefficient === 0);
+	if (c.kind === 'height-profile' && vm) {
+		warnings.push('Without virtual mass the level zone of the height profile is weakly damped; a run with fast bubbles can fail');
+	}
+	if (c.closures.interfacialPressureCoefficient === 0) {
+		warnings.push('With no interfacial pressure the one-dimensional two-fluid model is not well-posed (complex characteristics)');
+	}
 	return {
 		bubbleDiameterM: d,
 		eotvos: eotvosNumber(props),
 		morton: (g * Math.pow(l.viscosityPaS, 4) * dRho) / (l.densityKgM3 * l.densityKgM3 * Math.pow(l.surfaceTensionNM, 3)),
 		terminalVelocityMS: ut,
-		terminalReynolds: (l.densityKgM3 * ut * d) / l.viscosityPaS,
+		terminalReynolds,
 		spargerGasDensityKgM3: rhoSp,
 		topGasDensityKgM3: rhoTop,
 		spargerSuperficialGasVelocityMS: massFlux / rhoSp,
@@ -93,6 +107,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 		wellPosedUpToHoldup: hyperbolicityLimitHoldup({
 			virtualMassCoefficient: virtualMassCoefficient({ model: c.closures.virtualMass, holdup: 0.3, constant: c.closures.virtualMassCoefficient }),
 			interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient
-		})
+		}),
+		warnings
 	};
 }

@@ -108,5 +108,16 @@ describe('fluid presets and derived numbers', () => {
 		expect(d.firstTimeStepS).toBeGreaterThan(0);
 		// PHYSICS §15 #13: C_VM = 0.5, C_p = 0.25 is well-posed up to α = 1 − 1/√2
 		expect(d.wellPosedUpToHoldup).toBeCloseTo(1 - Math.SQRT1_2, 4);
+		expect(d.warnings).toEqual([]);
+	});
+
+	it('warns about Stokes drag outside its range and a model without virtual mass', () => {
+		const c = defaultCase();
+		c.closures.drag = 'stokes';
+		c.closures.virtualMass = 'none';
+		const d = derivedNumbers(c);
+		// Stokes (1851) holds for Re ≲ 0.1 (PHYSICS §1.1); a 4 mm bubble in water is far outside
+		expect(d.warnings.some((w) => /Stokes drag is valid for Re/.test(w))).toBe(true);
+		expect(d.warnings.some((w) => /virtual mass/.test(w))).toBe(true);
 	});
 });
