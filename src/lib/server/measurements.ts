@@ -5,7 +5,7 @@
  */
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './db/app.js';
-import { auditLog, cases, columns, measurements, runs, snapshots } from './db/schema.js';
+import { auditLog, cases, columns, comparisons, measurements, runs, snapshots } from './db/schema.js';
 import { parseMeasurementCsv, type CsvIssue } from '../measurements/csv.js';
 import {
 	errorMeasures,
@@ -303,4 +303,60 @@ export async function measurementsForRun(options: {
 			measures: profile ? errorMeasures({ profile, measurement: m.data }) : null
 		};
 	});
+}
+
+export interface RankedRun extends RunHeldAgainst {
+	/** false when the run's operating point is outside the matching rule for this measurement */
+	operatingPointMatches: boolean;
+}
+
+/**
+ * A comparison's runs ranked by RMSE against one chosen measurement of the same column (runs
+ * whose case kind cannot be held against it, or without a final profile, last). Null when the
+ * measurement is not the team's or not of that column.
+ */
+export async function rankRunsAgainstMeasurement(options: {
+	teamId: string;
+	columnId: string;
+	runIds: string[];
+	measurementId: string;
+}): Promise<{ measurement: Measurement; ranked: RankedRun[] } | null> {
+	const m = await getMeasurement({ teamId: options.teamId, id: options.measurementId });
+	if (!m || m.columnId !== options.columnId) return null;
+	if (options.runIds.length === 0) return { measurement: m, ranked: [] };
+	const rows = await db
+		.select({ id: runs.id, caseName: cases.name, status: runs.status, queuedAt: runs.queuedAt, document: runs.caseDocument })
+		.from(runs)
+		.leftJoin(cases, eq(cases.id, runs.caseId))
+		.where(and(eq(runs.teamId, options.teamId), inArray(runs.id, options.runIds)));
+	const finals = await finalSnapshots(rows.map((r) => r.id));
+	const ranked: RankedRun[] = rows.map((r) => {
+		const snap = finals.get(r.id);
+		const profile = snap ? profileForMeasurement({ kind: m.kind, caseDoc: r.document, snapshot: snap }) : null;
+		return {
+			runId: r.id,
+			caseName: r.caseName ?? r.document.name,
+			status: r.status,
+			queuedAt: r.queuedAt,
+			profile: profile ? { x: Array.from(profile.x), y: Array.from(profile.y) } : null,
+			measures: profile ? errorMeasures({ profile, measurement: m.data }) : null,
+			operatingPointMatches: operatingPointMatches({ run: operatingPointOfCase(r.document), measurement: m }).matches
+		};
+	});
+	ranked.sort((a, b) => (a.measures?.rmse ?? Infinity) - (b.measures?.rmse ?? Infinity));
+	return { measurement: m, ranked };
+}
+
+/** Remember the measurement a comparison is ranked against (null clears it). */
+export async function setComparisonMeasurement(options: { teamId: string; comparisonId: string; measurementId: string | null }): Promise<boolean> {
+	if (options.measurementId) {
+		const m = await getMeasurement({ teamId: options.teamId, id: options.measurementId });
+		if (!m) return false;
+	}
+	const rows = await db
+		.update(comparisons)
+		.set({ measurementId: options.measurementId })
+		.where(and(eq(comparisons.id, options.comparisonId), eq(comparisons.teamId, options.teamId)))
+		.returning({ id: comparisons.id });
+	return rows.length > 0;
 }
