@@ -412,7 +412,8 @@ export class HeightModel {
 		hf[0] = dz;
 		if (top.kind === 'pressure') {
 			wg[n] = ug[n] >= 0 ? (1 - lf[n - 1]) * rg[n - 1] : this.outsideGasDensity;
-			if (top.liquid === 'open') wl[n] = ul[n] >= 0 ? lf[n - 1] : 0;
+			// a (nearly) full top cell donates whatever the old direction: a liquid-full column must keep an outlet
+			if (top.liquid === 'open') wl[n] = ul[n] >= 0 || lf[n - 1] > SWITCH_FULL ? lf[n - 1] : 0;
 			else if (top.liquid === 'feed') {
 				wl[n] = 1;
 				ul0[n] = -(top.liquidFeedMS ?? 0);
