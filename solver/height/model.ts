@@ -11,11 +11,14 @@
  *
  * Numerics (Liles & Reed 1978 style, PHYSICS §12): staggered grid (α, p, ρ_g at cell centres, u_g, u_l
  * at faces); per face the momentum pair is linear in the new velocities and the new pressure difference,
- * with drag, virtual-mass accelerations and wall friction implicit and solved by the exact 2×2 elimination;
- * convection explicit upwind. Substituting the face velocities into the volume balance
+ * with drag, virtual-mass accelerations, wall friction and (where it acts as a drag) the interfacial
+ * pressure implicit, solved by the exact 2×2 elimination (PHYSICS §12.2); convection explicit upwind,
+ * weighted by the donor cell's content of the phase. Substituting the face velocities into the volume balance
  * Σ_k (mass_k / ρ_k), linearised in the gas density, gives one tridiagonal system for the pressure change.
  * Then the liquid fraction is advanced conservatively with donor-cell (optionally TVD-limited) fluxes
- * built from the old-time velocity direction, and ρ_g follows from the new pressure.
+ * built from the old-time velocity direction, over-drained cells are repaired conservatively, and ρ_g
+ * follows from the new pressure. The liquid is conserved to round-off; the gas to the linearisation error.
+ * The time step follows a material Courant number over the phases present in each cell.
  *
  * Boundaries: bottom inflow (gas mass flux, liquid volume flux) or wall; top pressure outlet (gas leaves
  * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
