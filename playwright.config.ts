@@ -3,7 +3,7 @@ import { defineConfig } from '@playwright/test';
 /**
  * Browser tests against the built app (`node build`) in Debian's Chromium — no browser download.
  * `npm test` provides the environment (test database, fake SMTP port, a free port); run alone,
- * `npx playwright test` falls back to the local test database and port 5185.
+ * `npx playwright test` falls back to the local test database, port 5185 and a mail catcher on 54327.
  */
 const port = Number(process.env.TWOFOLD_E2E_PORT ?? 5185);
 const baseURL = `http://127.0.0.1:${port}`;
@@ -51,7 +51,7 @@ export default defineConfig({
 			HOST: '127.0.0.1',
 			PORT: String(port),
 			SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',
-			SMTP_PORT: process.env.SMTP_PORT ?? '54325'
+			SMTP_PORT: process.env.SMTP_PORT ?? '54327'
 		}
 	}
 });

@@ -78,3 +78,33 @@ test('the viewer sees no create button and is refused the create action with 403
 	await expect(page.getByRole('heading', { name: 'Not allowed' })).toBeVisible();
 	await page.screenshot({ path: `${SHOTS}/07-viewer-403.png`, fullPage: true });
 });
+
+test('the admin invites a member and reads the invitation in the outgoing-mail box', async ({ page }) => {
+	await signIn(page, 'admin@marrowbay.test');
+	await page.getByRole('link', { name: 'Team', exact: true }).click();
+	await expect(page.getByRole('heading', { name: 'Team' })).toBeVisible();
+	await expect(page.getByRole('row', { name: /viewer@marrowbay\.test/ })).toBeVisible();
+
+	const email = `e2e-${Date.now()}@marrowbay.test`;
+	await page.getByLabel('E-mail', { exact: true }).fill(email);
+	await page.getByRole('radio', { name: /^lead/ }).check();
+	await page.getByRole('button', { name: 'Send invitation' }).click();
+	await expect(page.getByText(`Invitation sent to ${email}.`)).toBeVisible();
+	await expect(page.getByRole('listitem').filter({ hasText: email })).toContainText('lead');
+	await page.screenshot({ path: `${SHOTS}/08-team-admin.png`, fullPage: true });
+
+	await page.getByRole('link', { name: 'Outgoing mail' }).click();
+	await page.getByRole('link', { name: /invites you to Marrow Bay Process Group/ }).first().click();
+	await expect(page.getByText(email).first()).toBeVisible();
+	await expect(page.locator('pre')).toContainText('/invite/');
+	await page.screenshot({ path: `${SHOTS}/09-outgoing-mail.png`, fullPage: true });
+
+	// the invitee opens the link from the message
+	const link = /https?:\/\/\S+\/invite\/\S+/.exec(await page.locator('pre').innerText())?.[0];
+	expect(link).toBeTruthy();
+	await page.getByRole('button', { name: 'Sign out' }).click();
+	await expect(page).toHaveURL(/\/signin/);
+	await page.goto(new URL(link!).pathname);
+	await expect(page.getByRole('heading', { name: 'Join Marrow Bay Process Group' })).toBeVisible();
+	await page.screenshot({ path: `${SHOTS}/10-accept-invitation.png`, fullPage: true });
+});

@@ -9,6 +9,8 @@ import { ROLES } from './roles.js';
 
 export const INVITATION_DAYS = 7;
 
+export class MailNotSent extends Error {}
+
 export function hashToken(token: string): string {
 	return createHash('sha256').update(token).digest('hex');
 }
@@ -95,12 +97,16 @@ export async function inviteMember(options: {
 	});
 	const link = `${options.origin}/invite/${token}`;
 	const who = options.invitedBy.name ?? options.invitedBy.email;
+	// an invitation nobody was told about is useless: undo it when the mail cannot go out
 	await sendMail({
 		to: options.email,
 		subject: `${who} invites you to ${options.teamName} on Twofold`,
 		text:
 			`${who} invites you to join the team "${options.teamName}" on Twofold as ${options.role}.\n\n` +
 			`Open this link to set your password and join (valid for ${INVITATION_DAYS} days):\n\n${link}\n`
+	}).catch(async (e: unknown) => {
+		await db.delete(invitations).where(eq(invitations.tokenHash, hashToken(token)));
+		throw new MailNotSent(e instanceof Error ? e.message : String(e));
 	});
 	return { token };
 }

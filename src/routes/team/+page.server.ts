@@ -2,7 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireMember } from '$lib/server/guard';
 import { hasRole, isRole } from '$lib/server/roles';
-import { inviteForm, inviteMember, listMembers, listOpenInvitations, removeMember, revokeInvitation, setRole } from '$lib/server/team';
+import { MailNotSent, inviteForm, inviteMember, listMembers, listOpenInvitations, removeMember, revokeInvitation, setRole } from '$lib/server/team';
 import { parseForm } from '$lib/server/forms';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db/app';
@@ -31,7 +31,13 @@ export const actions: Actions = {
 		const { team, user } = await requireMember(event, 'admin');
 		const { data, values, failure } = parseForm(inviteForm, await event.request.formData());
 		if (!data) return failure;
-		await inviteMember({ teamId: team.id, teamName: team.name, invitedBy: user, email: data.email, role: data.role, origin: event.url.origin });
+		try {
+			await inviteMember({ teamId: team.id, teamName: team.name, invitedBy: user, email: data.email, role: data.role, origin: event.url.origin });
+		} catch (e) {
+			if (!(e instanceof MailNotSent)) throw e;
+			console.error('[team] invitation mail not sent:', e.message);
+			return fail(502, { values, errors: { email: 'The invitation e-mail could not be sent, so no invitation was made. Try again later.' } });
+		}
 		await audit(db, { teamId: team.id, userId: user.id, action: 'invitation.create', detail: { email: data.email, role: data.role } });
 		return { invited: data.email, values: { ...values, email: '' } };
 	},
