@@ -74,6 +74,12 @@ async function main() {
 	} catch (e) {
 		out.crossSection = { unavailable: (e as Error).message };
 	}
+	try {
+		const jobs = await import('./jobs.js');
+		out.jobs = await jobs.benchJobs();
+	} catch (e) {
+		out.jobs = { unavailable: (e as Error).message };
+	}
 	console.log(JSON.stringify(out, null, 2));
 }
 

@@ -21,7 +21,8 @@
 import os from 'node:os';
 import { randomBytes } from 'node:crypto';
 import { createDb, DEFAULT_DATABASE_URL } from '../src/lib/server/db/index.js';
-import { createBoss, ensureQueue, SOLVE_QUEUE, type SolveJobData } from '../src/lib/server/runs/jobs.js';
+import pg from 'pg';
+import { createBoss, ensureQueue, JOB_CHANNEL, SOLVE_QUEUE, type SolveJobData } from '../src/lib/server/runs/jobs.js';
 import { solveJob, type ActiveRun, type SolveContext } from './jobs/solve.js';
 import { startSweeper } from './sweeper.js';
 import { createSolverPool } from './jobs/solver-pool.js';
@@ -32,6 +33,36 @@ function numberFromEnv(name: string, fallback: number, min: number): number {
 	const value = Number(raw);
 	if (!Number.isFinite(value) || value < min) throw new Error(`${name} must be a number of at least ${min}, not "${raw}"`);
 	return value;
+}
+
+/**
+ * LISTEN for sent jobs and wake the idle work loops at once (pg-boss otherwise finds a job at its
+ * next poll). Best effort: a lost connection is re-opened, and polling covers the gap.
+ */
+function listenForJobs(o: { url: string; log: (m: string) => void; onJob: () => void }): { close(): Promise<void> } {
+	let client: pg.Client | null = null;
+	let closed = false;
+	const open = async () => {
+		const c = new pg.Client({ connectionString: o.url, application_name: 'twofold-worker-listen' });
+		c.on('notification', () => o.onJob());
+		c.on('error', (e) => {
+			o.log(`job LISTEN lost: ${e.message}`);
+			c.end().catch(() => {});
+			if (client === c) client = null;
+			if (!closed) setTimeout(() => void open().catch(() => {}), 1000).unref();
+		});
+		await c.connect();
+		await c.query(`LISTEN ${JOB_CHANNEL}`);
+		if (closed) await c.end();
+		else client = c;
+	};
+	open().catch((e) => o.log(`job LISTEN failed, polling only: ${(e as Error).message}`));
+	return {
+		async close() {
+			closed = true;
+			await client?.end().catch(() => {});
+		}
+	};
 }
 
 async function main() {
@@ -57,11 +88,14 @@ async function main() {
 	const ctx: SolveContext = { handle, boss, workerId, flushIntervalMs: 100, checkpointIntervalS, stepPauseMs, pool, active, isStopping: () => stopping, log };
 
 	// pg-boss 10 works one batch per `work` call: `concurrency` calls of batch size 1 = that many runs at once
+	const workIds: string[] = [];
 	for (let i = 0; i < concurrency; i++) {
-		await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS }, async ([job]) => {
+		const id = await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS }, async ([job]) => {
 			await solveJob(ctx, job);
 		});
+		workIds.push(id);
 	}
+	const wake = listenForJobs({ url, log, onJob: () => workIds.forEach((id) => boss.notifyWorker(id)) });
 	const sweeper = startSweeper({ handle, boss, staleAfterS, intervalMs: 1000, maxAttempts: 5, log });
 	log(`working ${SOLVE_QUEUE} with ${concurrency} slot(s)`);
 
@@ -74,6 +108,7 @@ async function main() {
 		force.unref();
 		try {
 			for (const run of active) run.requestShutdown();
+			await wake.close();
 			await sweeper.stop();
 			// waits for the handlers, which now checkpoint and release their runs
 			await boss.stop({ graceful: true, wait: true, timeout: timeoutMs });

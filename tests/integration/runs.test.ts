@@ -100,7 +100,7 @@ async function startWorker(app: RunningApp, env: Record<string, string> = {}): P
 			TWOFOLD_WORKER_CONCURRENCY: '1',
 			TWOFOLD_WORKER_POLL_S: '0.5',
 			TWOFOLD_CHECKPOINT_INTERVAL_S: '0.5',
-			TWOFOLD_STALE_AFTER_S: '2',
+			TWOFOLD_STALE_AFTER_S: '4',
 			...env
 		},
 		stdio: ['ignore', 'pipe', 'pipe']
@@ -361,6 +361,8 @@ describe('runs as queued jobs', () => {
 		// a viewer follows, then drops the connection part-way
 		const before = await readSse({ client: viewer, path: `/runs/${runId}/events`, until: (_e, all) => all.filter((x) => x.event === 'residuals').length >= 3 });
 		const lastEventId = before[before.length - 1].id;
+		// the replacement starts now (the run's job is taken, so it idles until the run is re-queued)
+		const secondStarting = startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
 
 		// kill the worker once a checkpoint past a third of the run is stored
 		const cp = await waitFor(
@@ -375,7 +377,7 @@ describe('runs as queued jobs', () => {
 		expect(killedAt.status).toBe('running');
 		expect(killedAt.steps).toBeLessThan(reference.results.step);
 
-		const second = await startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
+		const second = await secondStarting;
 		// the viewer reconnects with the last id it saw and reads to the end
 		const afterEvents = await readSse({ client: viewer, path: `/runs/${runId}/events`, lastEventId, until: isFinalStatus, timeoutMs: 90_000 });
 		const done = await getRunRow(runId);

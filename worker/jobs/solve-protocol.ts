@@ -36,6 +36,8 @@ export interface ResidualRow {
 	step: number;
 	timeS: number;
 	values: Residuals;
+	/** wall clock when the step was computed, ms since the epoch (not stored; for latency figures) */
+	atMs: number;
 }
 
 export type ThreadMessage = { seq: number } & (

@@ -77,7 +77,7 @@ function run(req: RunRequest) {
 			step = sim.state.step;
 			timeS = sim.state.timeS;
 			const ended = status.status !== 'running';
-			if (ended || storesResidualStep(step)) rows.push({ step, timeS, values: { ...sim.residuals() } });
+			if (ended || storesResidualStep(step)) rows.push({ step, timeS, values: { ...sim.residuals() }, atMs: Date.now() });
 
 			if (ended) {
 				flush();
@@ -89,7 +89,7 @@ function run(req: RunRequest) {
 					step,
 					timeS,
 					summary: JSON.parse(JSON.stringify(summary)) as Record<string, unknown>,
-					finalSnapshot: encodeSnapshot(profiles ?? sim.snapshot()),
+					finalSnapshot: encodeSnapshot(profiles ?? sim.snapshot(), { precision: 'float64' }),
 					wallTimeS: wallTimeS()
 				});
 				return;
@@ -99,7 +99,7 @@ function run(req: RunRequest) {
 			// step may pass several: they are not repeated)
 			if (timeS >= nextSnapshotIndex * intervalS * (1 - 1e-12)) {
 				flush();
-				post({ type: 'snapshot', step, timeS, bytes: encodeSnapshot(sim.snapshot()) });
+				post({ type: 'snapshot', step, timeS, bytes: encodeSnapshot(sim.snapshot(), { precision: 'float32' }) });
 				nextSnapshotIndex = Math.floor((timeS / intervalS) * (1 + 1e-12)) + 1;
 			}
 

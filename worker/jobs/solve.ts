@@ -167,11 +167,13 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 		return r.cancelRequested;
 	};
 
+	let lastProgressMs = 0;
 	const queueProgress = () => {
 		if (progressQueued) return;
 		progressQueued = true;
 		enqueue(async () => {
 			progressQueued = false;
+			lastProgressMs = performance.now();
 			const cancelRequested = await withTransaction(pool, writeProgress);
 			if (cancelRequested) stop('cancel');
 		});
@@ -185,7 +187,8 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 	const timer = setInterval(() => {
 		if (threadDone) return;
 		if (wallTimeS() > wallTimeLimitS) stop('wall-time');
-		queueProgress();
+		// the heartbeat, also when the thread has nothing to say (rows are written as they come)
+		if (performance.now() - lastProgressMs >= ctx.flushIntervalMs) queueProgress();
 	}, ctx.flushIntervalMs);
 
 	const finished = new Promise<void>((resolve) => {
@@ -202,6 +205,8 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 				case 'residuals':
 					for (const r of m.rows) pending.push(r);
 					latest = { step: m.step, timeS: m.timeS };
+					// the thread posts every ~flushIntervalMs: write at once rather than at the next tick
+					queueProgress();
 					break;
 				case 'snapshot':
 					enqueue(() =>
@@ -234,7 +239,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 							await tx.db
 								.insert(snapshots)
 								.values({ runId, step: m.step, simulatedTimeS: m.timeS, isFinal: true, data: Buffer.from(m.finalSnapshot) })
-								.onConflictDoUpdate({ target: [snapshots.runId, snapshots.step], set: { isFinal: true } });
+								.onConflictDoUpdate({ target: [snapshots.runId, snapshots.step], set: { isFinal: true, data: sql`excluded.data` } });
 							await endRun(tx, m.status === 'running' ? 'finished' : m.status, {
 								summary: m.summary,
 								errorMessage: m.status === 'failed' ? (m.message ?? 'The solver reported a failure without a message') : null

@@ -1,16 +1,20 @@
 /**
  * Binary encodings of what the worker stores as `bytea`: snapshots and checkpoints.
  *
- * A snapshot is stored ndarray-shaped: one row-major `Float64Array` of shape `[field, cell]` plus the
- * field names and the cell-centre positions, so a profile costs 8 bytes per value per cell plus a
- * few dozen bytes of header. Float64 keeps the stored profiles bit-identical to the solver's.
+ * A snapshot is stored ndarray-shaped: one row-major typed array of shape `[field, cell]` plus the
+ * field names and the cell-centre positions. Periodic snapshots (what the live page and the
+ * time slider show) are Float32 — 4 bytes per value per cell, 7 significant digits, far below any
+ * plotting resolution; the final snapshot of a run, which comparisons and exports read, is Float64
+ * and bit-identical to the solver's profiles. Decoding always returns Float64Arrays.
  *
- * msgpackr decodes a packed `Float64Array` as a Buffer unless `moreTypes` is on for both sides.
+ * msgpackr decodes a packed typed array as a Buffer unless `moreTypes` is on for both sides.
  */
 import { Packr } from 'msgpackr';
 import type { Checkpoint, Snapshot } from '../../../../solver/types.js';
 
 const packr = new Packr({ moreTypes: true });
+
+export type SnapshotPrecision = 'float32' | 'float64';
 
 /** The stored layout of one snapshot (version 1). */
 interface StoredSnapshot {
@@ -20,14 +24,15 @@ interface StoredSnapshot {
 	names: string[];
 	/** `[fields, cells]` */
 	shape: [number, number];
-	x: Float64Array;
-	values: Float64Array;
+	x: Float64Array | Float32Array;
+	values: Float64Array | Float32Array;
 }
 
-export function encodeSnapshot(snapshot: Snapshot): Uint8Array {
+export function encodeSnapshot(snapshot: Snapshot, options: { precision?: SnapshotPrecision } = {}): Uint8Array {
 	const names = Object.keys(snapshot.fields);
 	const cells = snapshot.x.length;
-	const values = new Float64Array(names.length * cells);
+	const Typed = options.precision === 'float32' ? Float32Array : Float64Array;
+	const values = new Typed(names.length * cells);
 	names.forEach((name, i) => {
 		const field = snapshot.fields[name];
 		if (field.length !== cells) throw new Error(`Snapshot field ${name} has ${field.length} values for ${cells} cells`);
@@ -39,7 +44,7 @@ export function encodeSnapshot(snapshot: Snapshot): Uint8Array {
 		timeS: snapshot.timeS,
 		names,
 		shape: [names.length, cells],
-		x: Float64Array.from(snapshot.x),
+		x: Typed.from(snapshot.x),
 		values
 	};
 	return packr.pack(stored);

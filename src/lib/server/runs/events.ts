@@ -135,6 +135,28 @@ export async function readEvents(o: { db: Db; runId: string; cursor: EventCursor
 	return { events, cursor };
 }
 
+/**
+ * Streams of one run woken by the same NOTIFY usually stand at the same cursor (they all follow
+ * live): they share one read instead of each querying the database. A read is shared only among
+ * streams woken by the same wake (it started after that NOTIFY, so it sees what was committed);
+ * a stream's first read is its own.
+ */
+const sharedReads = new Map<string, Promise<{ events: RunEvent[]; cursor: EventCursor; text: string }>>();
+
+function readShared(o: { db: Db; runId: string; cursor: EventCursor; wake: number | null }) {
+	const withText = (r: { events: RunEvent[]; cursor: EventCursor }) => ({ ...r, text: r.events.map(encodeEvent).join('') });
+	if (o.wake === null) return readEvents(o).then(withText);
+	const key = `${o.runId}|${o.wake}|${formatCursor(o.cursor)}`;
+	let read = sharedReads.get(key);
+	if (!read) {
+		read = readEvents(o)
+			.then(withText)
+			.finally(() => sharedReads.delete(key));
+		sharedReads.set(key, read);
+	}
+	return read;
+}
+
 function encodeEvent(e: RunEvent): string {
 	return `id: ${e.id}\nevent: ${e.event}\ndata: ${JSON.stringify(e.data)}\n\n`;
 }
@@ -170,6 +192,7 @@ export function createEventStream(o: { db: Db; hub: RunHub; runId: string; curso
 				}
 			};
 			// one read at a time; wake-ups during a read merge into one more read
+			let wake: number | null = null;
 			const pump = async () => {
 				if (reading) {
 					again = true;
@@ -179,9 +202,9 @@ export function createEventStream(o: { db: Db; hub: RunHub; runId: string; curso
 				try {
 					do {
 						again = false;
-						const r = await readEvents({ db: o.db, runId: o.runId, cursor });
+						const r = await readShared({ db: o.db, runId: o.runId, cursor, wake });
 						cursor = r.cursor;
-						for (const e of r.events) send(encodeEvent(e));
+						if (r.text) send(r.text);
 					} while (again && !done);
 				} catch (e) {
 					send(`: read failed: ${(e as Error).message.replace(/\n/g, ' ')}\n\n`);
@@ -190,7 +213,10 @@ export function createEventStream(o: { db: Db; hub: RunHub; runId: string; curso
 				}
 			};
 			send('retry: 1000\n\n');
-			unsubscribe = o.hub.subscribe(o.runId, () => void pump());
+			unsubscribe = o.hub.subscribe(o.runId, (n) => {
+				wake = n;
+				void pump();
+			});
 			keepAlive = setInterval(() => send(': keep-alive\n\n'), 15_000);
 			o.signal?.addEventListener('abort', () => {
 				stop();

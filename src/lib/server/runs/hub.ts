@@ -6,7 +6,8 @@
 import pg from 'pg';
 import { RUN_CHANNEL } from './jobs.js';
 
-export type RunListener = () => void;
+/** Called with the run's wake number, which grows with every NOTIFY of that run (and reconnect). */
+export type RunListener = (wake: number) => void;
 
 export interface RunHub {
 	/** Call `listener` whenever the run may have news; returns the unsubscribe function. */
@@ -18,13 +19,21 @@ export interface RunHub {
 
 export function createRunHub(options: { url: string; reconnectDelayMs?: number; log?: (msg: string) => void }): RunHub {
 	const listeners = new Map<string, Set<RunListener>>();
+	const wakes = new Map<string, number>();
+	const wakeRun = (runId: string) => {
+		const set = listeners.get(runId);
+		if (!set) return;
+		const n = (wakes.get(runId) ?? 0) + 1;
+		wakes.set(runId, n);
+		for (const l of set) l(n);
+	};
 	const log = options.log ?? ((msg: string) => console.error(`[runs-hub] ${msg}`));
 	let client: pg.Client | null = null;
 	let connecting: Promise<void> | null = null;
 	let closed = false;
 
 	const wakeAll = () => {
-		for (const set of listeners.values()) for (const l of set) l();
+		for (const runId of listeners.keys()) wakeRun(runId);
 	};
 
 	const connect = (): Promise<void> => {
@@ -33,8 +42,7 @@ export function createRunHub(options: { url: string; reconnectDelayMs?: number; 
 			const c = new pg.Client({ connectionString: options.url, application_name: 'twofold-app-listen' });
 			c.on('notification', (msg) => {
 				if (msg.channel !== RUN_CHANNEL || !msg.payload) return;
-				const set = listeners.get(msg.payload);
-				if (set) for (const l of set) l();
+				wakeRun(msg.payload);
 			});
 			c.on('error', (e) => {
 				log(`LISTEN connection lost: ${e.message}`);
@@ -91,7 +99,10 @@ export function createRunHub(options: { url: string; reconnectDelayMs?: number; 
 			}
 			return () => {
 				set.delete(listener);
-				if (set.size === 0) listeners.delete(runId);
+				if (set.size === 0) {
+					listeners.delete(runId);
+					wakes.delete(runId);
+				}
 			};
 		},
 		async ready() {

@@ -10,8 +10,14 @@ import type { CaseDocument } from '../../../../solver/case.js';
 /** pg-boss queue of solver runs; a job's data is `{ runId }`. */
 export const SOLVE_QUEUE = 'solve-run';
 
-/** PostgreSQL NOTIFY channel; the payload is the run id. */
+/** PostgreSQL NOTIFY channel of run news (progress, snapshot, status); the payload is the run id. */
 export const RUN_CHANNEL = 'twofold_run';
+
+/**
+ * NOTIFY channel that wakes idle workers when a job is sent, so a run starts within milliseconds
+ * instead of at the next poll; polling stays as the fallback.
+ */
+export const JOB_CHANNEL = 'twofold_job';
 
 export interface SolveJobData {
 	runId: string;
@@ -63,6 +69,8 @@ export async function sendSolveJob(options: { boss: PgBoss; client: pg.PoolClien
 		expireInSeconds: expireInSecondsFor(options.caseDoc)
 	});
 	if (!id) throw new Error(`pg-boss did not accept the job of run ${options.runId}`);
+	// delivered at commit, like the job itself
+	await options.client.query('select pg_notify($1, $2)', [JOB_CHANNEL, SOLVE_QUEUE]);
 	return id;
 }
 
