@@ -10,6 +10,8 @@
  *   overallHoldupChange  |Δε| over the window, per second, ε the holdup below the level
  *   liquidCentreRate     |Δz_c|/Δt of the liquid's centre of height over the gas feed velocity (catches
  *                        liquid still raining back from the freeboard while ε already looks steady)
+ *   momentumImbalance    max over faces of |Δu_k| over the window per second, for each phase present
+ *                        there, in units of g (the largest unbalanced acceleration)
  * all at or below the steady tolerance ⇒ converged. The values shown before the first window closes are 1.
  */
 import type { CaseDocument } from '../case.js';
@@ -28,7 +30,7 @@ export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 const RUNNING: StepStatus = Object.freeze({ status: 'running' });
 
 /** Stable residual ids of the height-profile model (database and chart keys). */
-export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'holdupChangeRate', 'overallHoldupChange', 'liquidCentreRate'] as const;
+export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'holdupChangeRate', 'overallHoldupChange', 'liquidCentreRate', 'momentumImbalance'] as const;
 
 export interface HeightSimulation extends Simulation {
 	/** the underlying model (tests and the benchmark read its arrays) */
@@ -68,15 +70,19 @@ class HeightSimulationImpl implements HeightSimulation {
 	private winLiqOut = 0;
 	private liquidNetInM = 0;
 	private windows = 0;
-	private res = { gasMassImbalance: 1, liquidMassImbalance: 1, overallHoldupChange: 1, liquidCentreRate: 1, holdupChangeRate: 1 };
-	/** liquid fraction at the start of the current window */
+	private res = { gasMassImbalance: 1, liquidMassImbalance: 1, overallHoldupChange: 1, liquidCentreRate: 1, holdupChangeRate: 1, momentumImbalance: 1 };
+	/** liquid fraction and face velocities at the start of the current window */
 	private readonly winLiquid: Float64Array;
+	private readonly winGasVelocity: Float64Array;
+	private readonly winLiquidVelocity: Float64Array;
 
 	constructor(caseDoc: CaseDocument, cfg: HeightModelConfig) {
 		this.caseDoc = caseDoc;
 		this.cfg = cfg;
 		this.model = new HeightModel(cfg);
 		this.winLiquid = Float64Array.from(this.model.liquidFraction);
+		this.winGasVelocity = Float64Array.from(this.model.gasVelocity);
+		this.winLiquidVelocity = Float64Array.from(this.model.liquidVelocity);
 		const fin = cfg.bottom.kind === 'inflow' ? cfg.bottom.gasMassFluxKgM2S : 0;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
 		// with no gas fed, normalise by a 1 mm/s gas flux so the measures stay finite
@@ -129,6 +135,23 @@ class HeightSimulationImpl implements HeightSimulation {
 			w[i] = lf[i];
 		}
 		this.res.holdupChangeRate = maxChange / span;
+		// largest change of a face velocity of a phase present there (fraction above 1e-4), as an unbalanced
+		// acceleration in units of g
+		let maxAccel = 0;
+		const ug = m.gasVelocity;
+		const ul = m.liquidVelocity;
+		const wg = this.winGasVelocity;
+		const wl = this.winLiquidVelocity;
+		for (let j = 0; j <= m.n; j++) {
+			const lfBelow = j > 0 ? lf[j - 1] : lf[0];
+			const lfAbove = j < m.n ? lf[j] : lf[m.n - 1];
+			const lff = 0.5 * (lfBelow + lfAbove);
+			if (1 - lff > 1e-4) maxAccel = Math.max(maxAccel, Math.abs(ug[j] - wg[j]));
+			if (lff > 1e-4) maxAccel = Math.max(maxAccel, Math.abs(ul[j] - wl[j]));
+			wg[j] = ug[j];
+			wl[j] = ul[j];
+		}
+		this.res.momentumImbalance = maxAccel / span / Math.abs(this.cfg.gravityAxialMS2);
 		this.windows++;
 		this.winStartS = m.timeS;
 		this.winHoldup = eps;
@@ -146,7 +169,8 @@ class HeightSimulationImpl implements HeightSimulation {
 			r.liquidMassImbalance <= tol &&
 			r.overallHoldupChange <= tol &&
 			r.liquidCentreRate <= tol &&
-			r.holdupChangeRate <= tol
+			r.holdupChangeRate <= tol &&
+			r.momentumImbalance <= tol
 		) {
 			m.status = 'converged';
 		}
@@ -258,7 +282,9 @@ class HeightSimulationImpl implements HeightSimulation {
 				liquidNetInM: this.liquidNetInM,
 				windows: this.windows,
 				windowLiquidFraction: Float64Array.from(this.winLiquid),
-				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate]
+				windowGasVelocity: Float64Array.from(this.winGasVelocity),
+				windowLiquidVelocity: Float64Array.from(this.winLiquidVelocity),
+				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate, this.res.momentumImbalance]
 			}
 		};
 	}
@@ -281,6 +307,8 @@ class HeightSimulationImpl implements HeightSimulation {
 		arr('gasVelocity', m.gasVelocity);
 		arr('liquidVelocity', m.liquidVelocity);
 		arr('windowLiquidFraction', this.winLiquid);
+		arr('windowGasVelocity', this.winGasVelocity);
+		arr('windowLiquidVelocity', this.winLiquidVelocity);
 		const num = (name: string) => {
 			const v = d[name];
 			if (typeof v !== 'number') throw new Error(`Checkpoint field ${name} is missing`);
@@ -302,7 +330,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.liquidNetInM = num('liquidNetInM');
 		this.windows = num('windows');
 		const r = d.residuals as number[];
-		this.res = { gasMassImbalance: r[0], liquidMassImbalance: r[1], overallHoldupChange: r[2], liquidCentreRate: r[3], holdupChangeRate: r[4] };
+		this.res = { gasMassImbalance: r[0], liquidMassImbalance: r[1], overallHoldupChange: r[2], liquidCentreRate: r[3], holdupChangeRate: r[4], momentumImbalance: r[5] };
 	}
 
 	results(): Results {
