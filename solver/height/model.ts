@@ -96,6 +96,8 @@ export class HeightModel {
 	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
 	/** max |Δα_l|/Δt of the last step, 1/s */
 	lastMaxHoldupRate = 0;
+	/** cell whose outflow set the last time step: i for the gas, −1 − i for the liquid */
+	private limitingCell = 0;
 
 	constructor(cfg: HeightModelConfig) {
 		this.cfg = cfg;
@@ -215,11 +217,17 @@ export class HeightModel {
 		for (let i = 0; i < n; i++) {
 			if (1 - lf[i] > CFL_PRESENCE) {
 				const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
-				if (s > speed) speed = s;
+				if (s > speed) {
+					speed = s;
+					this.limitingCell = i;
+				}
 			}
 			if (lf[i] > CFL_PRESENCE) {
 				const s = (ul[i + 1] > 0 ? ul[i + 1] : 0) - (ul[i] < 0 ? ul[i] : 0);
-				if (s > speed) speed = s;
+				if (s > speed) {
+					speed = s;
+					this.limitingCell = -1 - i;
+				}
 			}
 		}
 		let dt = speed > 0 ? (cfg.cflNumber * dz) / speed : cfg.maxTimeStepS;
@@ -259,7 +267,9 @@ export class HeightModel {
 				this.status = 'finished';
 				return this.status;
 			}
-			return this.fail(`time step collapsed to ${dt.toExponential(3)} s at t = ${this.timeS.toFixed(4)} s`);
+			const i = this.limitingCell >= 0 ? this.limitingCell : -1 - this.limitingCell;
+			const phase = this.limitingCell >= 0 ? 'gas' : 'liquid';
+			return this.fail(`time step collapsed to ${dt.toExponential(3)} s at t = ${this.timeS.toFixed(4)} s: the ${phase} velocity in cell ${i} (z = ${this.zCentre[i].toFixed(3)} m) limits it`);
 		}
 		const lf = this.liquidFraction;
 		const p = this.pressure;

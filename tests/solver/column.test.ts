@@ -289,6 +289,16 @@ describe('run control', () => {
 		expect(sim.step().status).toBe('failed');
 	});
 
+	it('fails with the limiting cell, the phase and the time when the time step collapses', () => {
+		const sim = createHeightSimulation(defaultCase());
+		for (let k = 0; k < 20; k++) sim.step();
+		// a gas velocity of 1e9 m/s in cell 5 forces a time step far below the collapse limit
+		sim.model.gasVelocity[6] = 1e9;
+		const s = sim.step();
+		expect(s.status).toBe('failed');
+		expect(s.message).toMatch(/time step collapsed .* t = \d+\.\d+ s: the gas velocity in cell 5 \(z = 0\.110 m\)/);
+	});
+
 	it('stops between steps when aborted and at maxSteps', () => {
 		const ac = new AbortController();
 		let n = 0;
