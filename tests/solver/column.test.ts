@@ -8,6 +8,7 @@ import { createHeightSimulation, residualNames, type HeightSimulation } from '..
 import { stokesVelocity, terminalVelocity } from '../../solver/closures/drag.js';
 import { idealGasDensity, GRAVITY_MS2 } from '../../solver/fluids.js';
 import { runToEnd } from '../../solver/index.js';
+import { gridConvergenceIndex } from '../../solver/gci.js';
 
 function run(sim: HeightSimulation): HeightSimulation {
 	while (sim.state.status === 'running') sim.step();
@@ -223,6 +224,23 @@ describe('a sparged air–water batch column (the reference case)', () => {
 		// diffuse level zone above the α = 0.5 point (a few millimetres)
 		expect(Math.abs(d.aeratedHeightM.value * (1 - d.overallHoldup.value) - 1.5)).toBeLessThan(0.01);
 		expect(d.regime.label).toMatch(/common-practice band/);
+	});
+});
+
+describe('grid convergence of the reference case', () => {
+	it('converges monotonically in the overall holdup with a small Grid Convergence Index', () => {
+		// Celik et al. (2008) procedure on 100, 200 and 400 cells (h = 2 m / N)
+		const values = [400, 200, 100].map((cells) => {
+			const c = defaultCase();
+			c.numerics.cells = cells;
+			const sim = run(createHeightSimulation(c));
+			expect(sim.state.status).toBe('converged');
+			return sim.overallHoldup();
+		}) as [number, number, number];
+		const g = gridConvergenceIndex({ cellSizes: [2 / 400, 2 / 200, 2 / 100], values });
+		console.info(`reference case ε on 400/200/100 cells: ${values.map((v) => v.toFixed(5)).join(', ')}; apparent order ${g.order.toFixed(2)}, extrapolated ${g.extrapolated.toFixed(5)}, GCI ${(100 * g.gciFine).toFixed(3)} %`);
+		expect(g.oscillatory).toBe(false);
+		expect(g.gciFine).toBeLessThan(0.005);
 	});
 });
 
