@@ -622,7 +622,10 @@ export class HeightModel {
 
 	private fail(message: string): RunStatus {
 		this.status = 'failed';
-		this.message = message;
+		const cfg = this.cfg;
+		const noVirtualMass = cfg.drag !== 'none' && (cfg.virtualMass === 'none' || (cfg.virtualMass === 'constant' && cfg.virtualMassCoefficient === 0));
+		// PHYSICS §18.1: without virtual mass the bubble front and the level are weakly damped
+		this.message = noVirtualMass ? `${message} (the case has no virtual mass, which leaves bubble fronts and the level weakly damped: try the constant coefficient 0.5)` : message;
 		return this.status;
 	}
 }
