@@ -166,9 +166,10 @@ describe('measurement uploads', () => {
 		expect(page.status).toBe(200);
 		const html = await page.text();
 		expect(html).toContain('data-testid="reaeration-fit"');
-		// at 20 °C and 101.325 kPa, kLa20 = kLa = 10 h⁻¹ and SOTR = 1 m³ · 10 h⁻¹ · 9.09 g/m³ = 0.0909 kg/h (PHYSICS §15 #31)
+		// at 20 °C and 101.325 kPa, kLa20 = kLa = 10 h⁻¹ and SOTR = 1 m³ · 10 h⁻¹ · 9.09 g/m³ = 90.9 g O₂/h (PHYSICS §15 #31)
 		expect(html).toMatch(/kLa20<\/td>\s*<td[^>]*>10<\/td>/);
-		expect(html).toMatch(/SOTR<\/td>\s*<td[^>]*>0\.0909<\/td>/);
+		expect(html).toMatch(/SOTR<\/td>\s*<td[^>]*>90\.9<\/td>/);
+		expect(html).toContain('g O₂/h');
 	});
 
 	it('deletes a measurement for an analyst only', async () => {
