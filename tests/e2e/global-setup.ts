@@ -1,6 +1,7 @@
 /**
  * Makes sure the test database has the demo team (seeding is idempotent), and when run without
- * `npm test` (no SMTP_PORT given), starts a fake SMTP server for the app on port 54327.
+ * `npm test` (no SMTP_PORT given), starts this run's own fake SMTP server on the port that
+ * playwright.config.ts chose (TWOFOLD_E2E_SMTP_PORT).
  */
 import { spawn, spawnSync } from 'node:child_process';
 import net from 'node:net';
@@ -22,9 +23,13 @@ export default async function globalSetup() {
 	const tsx = path.join(root, 'node_modules/.bin/tsx');
 	const r = spawnSync(tsx, ['src/lib/server/seed.ts'], { cwd: root, stdio: 'inherit', env });
 	if (r.status !== 0) throw new Error('seeding the test database failed');
-	if (process.env.SMTP_PORT || (await listening(54327))) return;
-	const catcher = spawn(tsx, ['src/lib/server/mail/catcher.ts'], { cwd: root, stdio: 'inherit', env: { ...env, SMTP_PORT: '54327' } });
-	for (let i = 0; i < 100 && !(await listening(54327)); i++) await new Promise((r) => setTimeout(r, 100));
+	if (process.env.SMTP_PORT) return;
+	const smtpPort = Number(process.env.TWOFOLD_E2E_SMTP_PORT);
+	const catcher = spawn(tsx, ['src/lib/server/mail/catcher.ts'], { cwd: root, stdio: 'inherit', env: { ...env, SMTP_PORT: String(smtpPort) } });
+	for (let i = 0; i < 200 && !(await listening(smtpPort)); i++) {
+		if (catcher.exitCode !== null) throw new Error(`the fake SMTP server could not start on port ${smtpPort}`);
+		await new Promise((r) => setTimeout(r, 100));
+	}
 	return async () => {
 		catcher.kill('SIGTERM');
 	};
