@@ -2,13 +2,14 @@
  * Axial momentum of both phases across the section, fully developed (no axial derivatives but
  * the pressure gradient), backward Euler in time:
  *
- *   liquid: ρ_l α_l ∂u_l/∂t − F_VM = (1/r) ∂/∂r (r w μ_eff ∂u_l/∂r) + α_l G − α_l ρ_l g + F_D
- *   gas:    ρ_g α  ∂u_g/∂t + F_VM = α G − α ρ_g g − F_D
+ *   liquid: ρ_l α_l ∂u_l/∂t = (1/r) ∂/∂r (r w μ_eff ∂u_l/∂r) + α_l G − α_l ρ_l g + F_D − F_VM
+ *   gas:    ρ_g α  ∂u_g/∂t = α G − α ρ_g g − F_D + F_VM
  *
  * with G = −dp/dz (one number for the section), the interfacial drag on the liquid
  * F_D = α f(u_g − u_l) (f the drag per unit gas volume, linearised about the old slip:
- * f(s) ≈ f'(s⁰) s + e, e = f(s⁰) − f'(s⁰) s⁰), virtual mass F_VM = C_VM α ρ_l ∂(u_l − u_g)/∂t
- * (the convective parts vanish in fully developed flow), and the stress weight w = α_l in the
+ * f(s) ≈ f'(s⁰) s + e, e = f(s⁰) − f'(s⁰) s⁰), the virtual-mass force on the gas
+ * F_VM = C_VM α ρ_l ∂(u_l − u_g)/∂t (PHYSICS §2; the convective parts vanish in fully developed
+ * flow), so the gas carries the added mass C_VM α ρ_l, and the stress weight w = α_l in the
  * two-fluid form. Axis: symmetry (zero stress). Wall: τ_w = λ u of the first cell, λ from the
  * wall function or μ/(Δr/2) for a resolved no-slip wall.
  *
