@@ -50,6 +50,7 @@ import { dispersionDiffusivityM2S, radialDispersionForce } from '../closures/dis
 import { logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS, turbulentKineticEnergyM2S2 } from '../closures/turbulence.js';
 import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
 import { GRAVITY_MS2, idealGasDensity } from '../fluids.js';
+import { SOLVER_VERSION } from '../version.js';
 import { createRadialGrid, sectionAverage, sectionAverageProduct, type RadialGrid } from './grid.js';
 import { solveAxialMomentum } from './momentum.js';
 import { transportHoldup } from './transport.js';
@@ -59,7 +60,8 @@ export type { RadialGrid } from './grid.js';
 export { solveAxialMomentum } from './momentum.js';
 export { transportHoldup } from './transport.js';
 
-export const CROSS_SECTION_MODEL_VERSION = 'cross-section-1.0.0';
+/** Version written into checkpoints: the one solver version shared with the height-profile model. */
+export const CROSS_SECTION_MODEL_VERSION = SOLVER_VERSION;
 /** Height of the column slice that exchanges the gas-flux imbalance, in column diameters. */
 export const FLUX_RELAXATION_HEIGHT_DIAMETERS = 1;
 /** Holdup above which the bubbly closures are meaningless: a run that reaches it fails. */
@@ -512,6 +514,8 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		},
 		restore(cp: Checkpoint): void {
 			if (cp.kind !== 'cross-section') throw new Error(`A ${cp.kind} checkpoint cannot restore a cross-section run`);
+			// continuing bit-identically needs the very same numerics
+			if (cp.solverVersion !== SOLVER_VERSION) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 			const dd = cp.data;
 			const arr = (k: string): Float64Array => {
 				const raw: unknown = dd[k];

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Packr } from 'msgpackr';
 import { defaultCase, type CaseDocument } from '../../solver/case.js';
 import type { Results, Simulation } from '../../solver/types.js';
+import { SOLVER_VERSION } from '../../solver/version.js';
 import {
 	FLUX_RELAXATION_HEIGHT_DIAMETERS,
 	createCrossSectionSimulation,
@@ -371,6 +372,15 @@ describe('cross-section model, conservation and restart', () => {
 		const sb = b.snapshot();
 		for (const name of Object.keys(sa.fields)) expect(Buffer.from(sb.fields[name].buffer).equals(Buffer.from(sa.fields[name].buffer))).toBe(true);
 		expect(b.results().design.axialPressureGradientPaM.value).toBe(a.results().design.axialPressureGradientPaM.value);
+	});
+
+	it('refuses a checkpoint written by another solver version', () => {
+		// the README promises it for every model: a restored run must continue with the very same numerics
+		const sim = createCrossSectionSimulation(crossCase());
+		sim.step();
+		const cp = sim.checkpoint();
+		expect(cp.solverVersion).toBe(SOLVER_VERSION);
+		expect(() => createCrossSectionSimulation(crossCase()).restore({ ...cp, solverVersion: '0.0.1' })).toThrow(/solver 0\.0\.1 cannot continue/);
 	});
 
 	it('reports every residual, snapshot field and design number by its stable id', () => {
