@@ -91,7 +91,8 @@ export const fluidPresets: readonly FluidPreset[] = [
 		gas: air,
 		temperatureK: 293.15,
 		solute: 'oxygen',
-		soluteDiffusivityM2S: 2.0e-10,
+		// 2.0e-9 · (0.0609/1.002e-3)^(−2/3) = 1.29e-10
+		soluteDiffusivityM2S: 1.3e-10,
 		soluteSource: 'O₂ diffusivity scaled from water by the viscosity ratio to the power −2/3 (estimate)'
 	},
 	{

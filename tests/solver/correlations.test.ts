@@ -96,6 +96,13 @@ describe('fluid presets and derived numbers', () => {
 		}
 	});
 
+	it('scales the oxygen diffusivity of the glycerol–water preset from water as its source line says', () => {
+		// preset estimate: D = D_water (μ/μ_water)^(−2/3), D_water = 2.0e-9 m²/s (PHYSICS §13.2, from memory) [D]: 1.29e-10
+		const p = fluidPresets.find((x) => x.id === 'air-glycerol-water-80wt-20C')!;
+		expect(p.soluteSource).toMatch(/−2\/3/);
+		expect(rel(p.soluteDiffusivityM2S, 2.0e-9 * Math.pow(p.liquid.viscosityPaS / 1.002e-3, -2 / 3))).toBeLessThan(0.01);
+	});
+
 	it('derives the air–water groups of the default case', () => {
 		// PHYSICS §14 [D]: Mo = 2.58e-11; 4 mm Schiller–Naumann bubble in Newton range: U = √(4/3 g d Δρ/(0.44 ρ_l))
 		const d = derivedNumbers(defaultCase());
