@@ -4,7 +4,18 @@ import { hyperbolicityLimitHoldup, virtualMassCoefficient, zuberVirtualMassCoeff
 import { darcyFrictionFactor } from '../../solver/closures/friction.js';
 import { swarmDragFactor } from '../../solver/closures/swarm.js';
 import { closureCatalog } from '../../solver/closures/catalog.js';
-import { dragLaws, swarmCorrections, virtualMassModels, wallFrictionModels, convectionSchemes } from '../../solver/case.js';
+import {
+	bubbleInducedTurbulenceModels,
+	bubbleSizings,
+	convectionSchemes,
+	dragLaws,
+	liftModels,
+	swarmCorrections,
+	turbulentDispersionModels,
+	virtualMassModels,
+	wallFrictionModels,
+	wallLubricationModels
+} from '../../solver/case.js';
 import { graceVelocity, mendelsonVelocity } from '../../solver/correlations/terminal-velocity.js';
 
 // Reference property set of PHYSICS §0: water and air at 20 °C, 1 atm
@@ -132,9 +143,16 @@ describe('closure catalogue', () => {
 			[closureCatalog['closures.drag'], dragLaws],
 			[closureCatalog['closures.swarm'], swarmCorrections],
 			[closureCatalog['closures.virtualMass'], virtualMassModels],
+			[closureCatalog['closures.lift'], liftModels],
+			[closureCatalog['closures.wallLubrication'], wallLubricationModels],
+			[closureCatalog['closures.turbulentDispersion'], turbulentDispersionModels],
+			[closureCatalog['closures.bubbleInducedTurbulence'], bubbleInducedTurbulenceModels],
 			[closureCatalog['closures.wallFriction'], wallFrictionModels],
-			[closureCatalog['numerics.scheme'], convectionSchemes]
+			[closureCatalog['numerics.scheme'], convectionSchemes],
+			[closureCatalog['bubbles.sizing'], bubbleSizings]
 		];
+		// every catalogued field is covered above
+		expect(pairs.length).toBe(Object.keys(closureCatalog).length);
 		for (const [cat, options] of pairs) {
 			expect(Object.keys(cat).sort()).toEqual([...options].sort());
 			for (const o of options) {
