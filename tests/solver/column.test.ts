@@ -240,6 +240,8 @@ describe('grid convergence of the reference case', () => {
 		const g = gridConvergenceIndex({ cellSizes: [2 / 400, 2 / 200, 2 / 100], values });
 		console.info(`reference case ε on 400/200/100 cells: ${values.map((v) => v.toFixed(5)).join(', ')}; apparent order ${g.order.toFixed(2)}, extrapolated ${g.extrapolated.toFixed(5)}, GCI ${(100 * g.gciFine).toFixed(3)} %`);
 		expect(g.oscillatory).toBe(false);
+		// 0.5 %: half the 1 % band of the drift-flux check above, so grid error alone cannot pass or fail a check of
+		// that size on the fine grid (measured: 0.016 %; the 100-cell value lies 0.6 % from the extrapolated one)
 		expect(g.gciFine).toBeLessThan(0.005);
 	});
 });
