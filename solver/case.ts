@@ -77,12 +77,12 @@ export const gasSchema = z
 
 export const fluidsSchema = z
 	.object({
-		preset: z.string().max(80).nullable().default('air-water-20C'),
+		preset: z.string().max(80, { error: 'Fluid preset id must be at most 80 characters' }).nullable().default('air-water-20C'),
 		liquid: liquidSchema,
 		gas: gasSchema,
 		temperatureK: quantity({ label: 'Temperature', unit: 'K' }, 250, 500, 293.15),
 		topPressurePa: quantity({ label: 'Top pressure', unit: 'Pa', help: 'absolute pressure at the top outlet' }, 1e4, 1e7, 101325),
-		solute: z.string().trim().min(1).max(80).default('oxygen'),
+		solute: z.string().trim().min(1, { error: 'Solute name must not be empty' }).max(80, { error: 'Solute name must be at most 80 characters' }).default('oxygen'),
 		soluteDiffusivityM2S: quantity({ label: 'Solute diffusivity in the liquid', unit: 'm²/s' }, 1e-11, 1e-7, 2.0e-9)
 	})
 	.prefault({});

@@ -85,6 +85,13 @@ describe('invalid cases', () => {
 		}
 	});
 
+	it('refuse an empty solute name with a message that names the field', () => {
+		const c = { ...defaultCase(), fluids: { ...defaultCase().fluids, solute: '  ' } };
+		const v = validateCase(c);
+		expect(v.ok).toBe(false);
+		if (!v.ok) expect(v.issues).toContainEqual({ path: 'fluids.solute', message: 'Solute name must not be empty' });
+	});
+
 	it('refuse a clear-liquid level at or above the column top', () => {
 		const c = defaultCase();
 		c.geometry.clearLiquidLevelM = 2.5;
