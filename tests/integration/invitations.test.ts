@@ -80,6 +80,32 @@ describe('invitations', () => {
 		expect(await (await admin.get('/team/mail')).text()).toContain(email);
 	});
 
+	it('lets a member of another team join with their existing password and switch between the two teams', async () => {
+		const elsewhere = await createTestTeam({ db: handle.db, name: 'Second home team' });
+		const person = elsewhere.members.lead;
+		const admin = await signedInClient(app.baseUrl, t.members.admin);
+		const since = new Date(Date.now() - 1000);
+		expect((await admin.post('/team?/invite', { email: person.email, role: 'viewer' })).status).toBe(200);
+		const path = new URL(firstLink((await waitForMail({ db: handle.db, to: person.email, since })).text)).pathname;
+
+		const client = await signedInClient(app.baseUrl, person);
+		expect(await (await client.get(path)).text()).toContain('Enter its password to join');
+		expect((await client.post(path, { password: 'not-my-password' })).status).toBe(400);
+		const joined = await client.post(path, { password: person.password });
+		expect(joined.status).toBe(303);
+
+		// lands in the team just joined, as viewer there
+		expect(await (await client.get('/')).text()).toContain('Invitation test team');
+		expect((await client.get('/columns/new')).status).toBe(403);
+		// switches back to the first team, where they are lead
+		expect((await client.post('/team/switch', { teamId: elsewhere.team.id })).status).toBe(303);
+		expect(await (await client.get('/')).text()).toContain('Second home team');
+		expect((await client.get('/columns/new')).status).toBe(200);
+		// a team they are not in cannot be chosen
+		const third = await createTestTeam({ db: handle.db });
+		expect((await client.post('/team/switch', { teamId: third.team.id })).status).toBe(404);
+	});
+
 	it('answers 404 to an unknown invitation token', async () => {
 		expect((await new TestClient(app.baseUrl).get('/invite/not-a-real-token')).status).toBe(404);
 	});

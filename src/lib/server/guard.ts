@@ -59,18 +59,28 @@ export async function currentUser(event: RequestEvent): Promise<SignedInUser | n
 	return user;
 }
 
+/** All teams the user belongs to, oldest membership first. */
+export async function listMyTeams(userId: string) {
+	return db
+		.select({ team: teams, role: memberships.role })
+		.from(memberships)
+		.innerJoin(teams, eq(teams.id, memberships.teamId))
+		.where(eq(memberships.userId, userId))
+		.orderBy(asc(memberships.createdAt));
+}
+
+/** Remembers which team a member of several teams works in (only a team they belong to counts). */
+export function chooseTeam(event: RequestEvent, teamId: string) {
+	event.cookies.set(TEAM_COOKIE, teamId, { path: '/', httpOnly: true, sameSite: 'lax', maxAge: 365 * 24 * 3600 });
+}
+
 /** The caller's membership (team + role) without any role requirement, or null. Cached per request. */
 export async function currentMember(event: RequestEvent): Promise<Member | null> {
 	if (event.locals.member !== undefined) return event.locals.member;
 	const user = await currentUser(event);
 	let member: Member | null = null;
 	if (user) {
-		const rows = await db
-			.select({ team: teams, role: memberships.role })
-			.from(memberships)
-			.innerJoin(teams, eq(teams.id, memberships.teamId))
-			.where(eq(memberships.userId, user.id))
-			.orderBy(asc(memberships.createdAt));
+		const rows = await listMyTeams(user.id);
 		const chosen = event.cookies.get(TEAM_COOKIE);
 		const row = rows.find((r) => r.team.id === chosen) ?? rows[0];
 		if (row) member = { user, team: row.team, role: row.role };

@@ -8,6 +8,7 @@ import { findUserByEmail } from '$lib/server/auth';
 import { hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/passwords';
 import { signInWithPassword } from '$lib/server/auth/actions';
 import { audit } from '$lib/server/audit';
+import { chooseTeam } from '$lib/server/guard';
 
 const GONE = 'This invitation is unknown, already used or expired. Ask your team admin for a new one.';
 
@@ -65,6 +66,8 @@ export const actions: Actions = {
 				.onConflictDoNothing();
 			await tx.update(invitations).set({ acceptedAt: new Date() }).where(and(eq(invitations.id, invitation.id)));
 		});
+		// someone who is already in another team lands in the team they just joined
+		chooseTeam(event, invitation.teamId);
 		await audit(db, { teamId: invitation.teamId, userId, action: 'invitation.accept', subject: invitation.id, detail: { role: invitation.role } });
 		return signInWithPassword(event, { email: invitation.email, password, redirectTo: '/' });
 	}
