@@ -199,6 +199,7 @@ let analyst: TestClient;
 let viewer: TestClient;
 let otherViewer: TestClient;
 let otherAnalyst: TestClient;
+let firstWorker: Promise<WorkerProcess>;
 
 async function storeCase(doc: CaseDocument): Promise<string> {
 	const [row] = await handle.db
@@ -241,6 +242,9 @@ function expectedSteps(lastStep: number): number[] {
 beforeAll(async () => {
 	handle = await openTestDb();
 	app = await startApp();
+	// the first worker boots (seconds under tsx) while the teams and sign-ins are made
+	firstWorker = startWorker(app);
+	firstWorker.catch(() => {});
 	teamA = await createTestTeam({ db: handle.db, name: 'Runs team A' });
 	teamB = await createTestTeam({ db: handle.db, name: 'Runs team B' });
 	// room for the twenty-run test; the limit itself is tested with a lower value below
@@ -263,7 +267,7 @@ describe('runs as queued jobs', () => {
 	let firstRunId = '';
 
 	it('queues a small case, which converges with its residuals, snapshots, summary, live events and e-mail stored', async () => {
-		const worker = await startWorker(app);
+		const worker = await firstWorker;
 		const since = new Date();
 		const doc = smallCase();
 		const runId = await queueOverHttp(doc);
@@ -415,13 +419,20 @@ describe('runs as queued jobs', () => {
 		const current = workers[workers.length - 1];
 		const doc = referenceCase('graceful');
 		const runId = await queueOverHttp(doc);
+		await waitForStatus(runId, ['running']);
+		// the next worker starts meanwhile; it idles while the run's job is taken
+		const nextStarting = startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
 		await waitFor(async () => ((await getRunRow(runId)).steps > 50 ? true : null), { what: 'the run to make progress' });
 		expect(await current.stop(), current.output()).toBe(0);
-		const released = await getRunRow(runId);
-		expect(released.status, current.output()).toBe('queued');
-		const [cp] = await handle.db.select().from(checkpoints).where(eq(checkpoints.runId, runId));
-		expect(cp.step).toBeGreaterThan(50);
-		const next = await startWorker(app, { TWOFOLD_WORKER_STEP_PAUSE_MS: PACE_MS });
+		const released = new RegExp(`run ${runId}: checkpointed at simulated time [\\d.]+ s, step (\\d+) and released`).exec(current.output());
+		expect(released, current.output()).not.toBe(null);
+		expect(Number(released![1])).toBeGreaterThan(50);
+		// handed back: queued again, or already claimed by the next worker
+		const currentId = /\[worker (\S+)\]/.exec(current.output())![1];
+		const row = await getRunRow(runId);
+		expect(['queued', 'running']).toContain(row.status);
+		expect(row.workerId).not.toBe(currentId);
+		const next = await nextStarting;
 		const done = await waitForStatus(runId, ENDED, 90_000);
 		expect(['converged', 'finished'], next.output()).toContain(done.status);
 		expect(done.attempts).toBe(2);
@@ -497,7 +508,11 @@ describe('runs as queued jobs', () => {
 		await Promise.all(workers.map((w) => w.stop()));
 		const [one, two] = await Promise.all([startWorker(app), startWorker(app)]);
 		const ids: string[] = [];
-		for (let i = 0; i < 20; i++) ids.push(await queueOverHttp(smallCase(`batch ${i + 1}`)));
+		for (let i = 0; i < 20; i++) {
+			const doc = smallCase(`batch ${i + 1}`);
+			doc.numerics.snapshotIntervalS = 4;
+			ids.push(await queueOverHttp(doc));
+		}
 		await waitFor(
 			async () => {
 				const rows = await handle.db.select({ status: runs.status }).from(runs).where(inArray(runs.id, ids));
