@@ -12,6 +12,7 @@ export { derivedNumbers, bubbleDiameter, gasMassFlux, type DerivedNumbers } from
 export { fluidPresets, findFluidPreset, applyFluidPreset, type FluidPreset } from './fluids.js';
 export { closureCatalog, type CatalogEntry } from './closures/catalog.js';
 export { residualNames as heightResidualNames } from './height/simulation.js';
+export { CROSS_SECTION_RESIDUALS as crossSectionResidualNames } from './cross-section/index.js';
 export { gridConvergenceIndex, type GridConvergence } from './gci.js';
 
 export { SOLVER_VERSION } from './version.js';
