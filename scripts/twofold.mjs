@@ -369,9 +369,9 @@ async function commandTest(extraArgs) {
 		const database = process.env.TWOFOLD_TEST_DB ?? 'twofold_test';
 		const databaseUrl = await setUpDatabase({ database, fresh: true });
 		const smtpPort = await freePort();
+		// no NODE_ENV here: vitest sets its own; the app processes the tests start get 'production'
 		const env = {
 			...process.env,
-			NODE_ENV: 'production',
 			TWOFOLD_TEST: '1',
 			DATABASE_URL: databaseUrl,
 			AUTH_SECRET: authSecret(),
