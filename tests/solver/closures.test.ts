@@ -24,7 +24,8 @@ const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	it('gives the Schiller–Naumann terminal velocity of a 1 mm and a 3 mm rigid bubble in water (#1, #2)', () => {
-		// #1, #2 [D]: root of (4/3) g d Δρ = C_D ρ_l U² with C_D = 24/Re (1 + 0.15 Re^0.687)
+		// #1, #2 [D]: root of (4/3) g d Δρ = C_D ρ_l U² with C_D = 24/Re (1 + 0.15 Re^0.687) (Schiller & Naumann
+		// 1933, formula from memory, PHYSICS §1.3)
 		const u1 = terminalVelocity({ law: 'schiller-naumann', diameterM: 1e-3, ...water });
 		expect(rel(u1, 0.1122)).toBeLessThan(0.005);
 		const re1 = (998.2 * u1 * 1e-3) / 1.002e-3;
@@ -36,7 +37,8 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	});
 
 	it('gives the Stokes and Hadamard–Rybczynski velocity of a 0.1 mm bubble in glycerol and in water (#3, #4)', () => {
-		// #3 [D]: 1259.8·9.81·1e-8/(18·1.412) with glycerol ρ 1261, μ 1.412 (properties from memory)
+		// #3 [D]: 1259.8·9.81·1e-8/(18·1.412) with glycerol ρ 1261, μ 1.412 (properties from memory); Stokes (1851) and
+		// Hadamard–Rybczynski (1911) laws from memory (PHYSICS §1.1, §1.2)
 		const glycerol = { diameterM: 1e-4, liquidDensityKgM3: 1261, gasDensityKgM3: 1.204, liquidViscosityPaS: 1.412 };
 		expect(rel(stokesVelocity(glycerol), 4.863e-6)).toBeLessThan(1e-3);
 		expect(rel(hadamardRybczynskiVelocity(glycerol), 7.294e-6)).toBeLessThan(1e-3);
@@ -62,7 +64,7 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	});
 
 	it('gives the Ishii–Zuber distorted-regime drag and rise velocity (#7)', () => {
-		// #7 [D]: C_D = (2/3)√Eo·E(α)², U_∞ = √2 (σgΔρ/ρ_l²)^(1/4) = 0.2311 m/s
+		// #7 [D]: C_D = (2/3)√Eo·E(α)², U_∞ = √2 (σgΔρ/ρ_l²)^(1/4) = 0.2311 m/s (Ishii & Zuber 1979, formulas from memory)
 		const re = (998.2 * 0.23 * 3e-3) / 1.002e-3;
 		expect(rel(dragCoefficient({ law: 'ishii-zuber', reynolds: re, eotvos: 1.2108, holdup: 0 }), 0.7336)).toBeLessThan(0.005);
 		expect(rel(dragCoefficient({ law: 'ishii-zuber', reynolds: re, eotvos: 1.2108, holdup: 0.1 }), 0.7794)).toBeLessThan(0.005);
@@ -71,7 +73,7 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	});
 
 	it('reproduces the Mendelson and Grace comparison velocities (#8, #9)', () => {
-		// #8 [D] Mendelson (1967) wave analogy
+		// #8 [D] Mendelson (1967) wave analogy (formula from memory)
 		expect(rel(mendelsonVelocity({ diameterM: 3e-3, ...water }), 0.2515)).toBeLessThan(0.005);
 		expect(rel(mendelsonVelocity({ diameterM: 1e-3, ...water }), 0.388)).toBeLessThan(0.005);
 		expect(rel(mendelsonVelocity({ diameterM: 5e-3, ...water }), 0.2316)).toBeLessThan(0.005);
@@ -102,7 +104,7 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	});
 
 	it('keeps the Schiller–Naumann coefficient at 0.44 above Re = 1000 and Stokes at 24/Re', () => {
-		// Schiller & Naumann (1933) Newton-range constant
+		// Schiller & Naumann (1933) Newton-range constant; Stokes (1851) 24/Re (both from memory)
 		expect(dragCoefficient({ law: 'schiller-naumann', reynolds: 5000, eotvos: 0, holdup: 0 })).toBeCloseTo(0.44, 12);
 		expect(dragCoefficient({ law: 'stokes', reynolds: 0.01, eotvos: 0, holdup: 0 })).toBeCloseTo(2400, 9);
 	});
@@ -110,7 +112,7 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 
 describe('virtual mass, swarm and friction closures', () => {
 	it('gives the Zuber (1964) virtual-mass coefficient at α = 0.1 (#12)', () => {
-		// #12 [D]: 0.5·1.2/0.9
+		// #12 [D]: 0.5·1.2/0.9 (Zuber 1964, formula from memory)
 		expect(zuberVirtualMassCoefficient(0.1)).toBeCloseTo(0.5 * 1.2 / 0.9, 14);
 		expect(virtualMassCoefficient({ model: 'zuber', holdup: 0.1 })).toBeCloseTo(0.66667, 4);
 		expect(virtualMassCoefficient({ model: 'constant', holdup: 0.3, constant: 0.5 })).toBe(0.5);
@@ -123,15 +125,15 @@ describe('virtual mass, swarm and friction closures', () => {
 	});
 
 	it('turns the single-bubble slip into the Richardson–Zaki and Wallis swarm slip for a Re-independent C_D', () => {
-		// Wallis (1969) n = 2: slip U_t(1 − α), so h = (1 − α)^−2; derived from the force balance C_D h u² = C_D U_t²
+		// Wallis (1969) n = 2 (from memory): slip U_t(1 − α), so h = (1 − α)^−2; derived from the force balance C_D h u² = C_D U_t²
 		expect(swarmDragFactor({ model: 'wallis', holdup: 0.2, terminalReynolds: 1000 })).toBeCloseTo(1 / 0.64, 12);
-		// Richardson & Zaki (1954), Re_t > 500: n = 2.39
+		// Richardson & Zaki (1954), Re_t > 500: n = 2.39 (from memory)
 		expect(swarmDragFactor({ model: 'richardson-zaki', holdup: 0.2, terminalReynolds: 1000 })).toBeCloseTo(Math.pow(0.8, -2 * 1.39), 12);
 		expect(swarmDragFactor({ model: 'none', holdup: 0.2, terminalReynolds: 1000 })).toBe(1);
 	});
 
 	it('gives the Blasius and laminar friction factors', () => {
-		// Blasius (1913): 0.316·1e4^-0.25 = 0.0316; Hagen–Poiseuille 64/Re
+		// Blasius (1913): 0.316·1e4^-0.25 = 0.0316; Hagen–Poiseuille 64/Re (both common practice)
 		expect(darcyFrictionFactor(1e4)).toBeCloseTo(0.0316, 10);
 		expect(darcyFrictionFactor(1000)).toBeCloseTo(0.064, 12);
 	});

@@ -87,7 +87,7 @@ describe('the dilute limit', () => {
 		const r = diluteSlip(c, 0.5);
 		expect(r.holdup).toBeGreaterThan(1e-4);
 		expect(r.holdup).toBeLessThan(2e-3);
-		// independent root solve of (4/3) g d Δρ = C_D ρ_l U² (PHYSICS §1.7); the model's slip is U_t √α_l
+		// independent root solve of (4/3) g d Δρ = C_D ρ_l U² (PHYSICS §1.7; Schiller–Naumann law from memory); the model's slip is U_t √α_l
 		// for K ∝ α (PHYSICS §18), i.e. 0.05 % below U_t at this holdup: tolerance 0.3 %
 		const ut = terminalVelocity({ law: 'schiller-naumann', diameterM: 2e-3, liquidDensityKgM3: 998.2, gasDensityKgM3: r.gasDensity, liquidViscosityPaS: 1.002e-3, surfaceTensionNM: 0.0727 });
 		expect(Math.abs(r.slip - ut) / ut).toBeLessThan(3e-3);
@@ -105,7 +105,7 @@ describe('the dilute limit', () => {
 		c.sparging.superficialGasVelocityMS = 2e-6;
 		c.numerics.endTimeS = 20;
 		const r = diluteSlip(c, 0.02);
-		// Stokes (1851): U = Δρ g d²/(18 μ), written out here
+		// Stokes (1851): U = Δρ g d²/(18 μ), written out here (law from memory, PHYSICS §1.1)
 		const us = ((1208 - r.gasDensity) * 9.81 * 5e-4 * 5e-4) / (18 * 0.0609);
 		expect(r.holdup).toBeGreaterThan(1e-4);
 		expect(Math.abs(r.slip - us) / us).toBeLessThan(3e-3);

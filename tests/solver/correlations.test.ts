@@ -42,24 +42,25 @@ describe('bubble-column design correlations (PHYSICS §15)', () => {
 	});
 
 	it('gives the Akita–Yoshida (1974) Sauter diameter and interfacial area (#16)', () => {
-		// #16 [D]: 5.21 mm; a = 6ε/d32 = 123.5 1/m with ε = 0.1073
+		// #16 [D]: 5.21 mm; a = 6ε/d32 = 123.5 1/m with ε = 0.1073 (Akita–Yoshida 1974 constants from memory)
 		const d32 = akitaYoshidaSauterDiameter(column);
 		expect(rel(d32, 5.21e-3)).toBeLessThan(0.01);
 		expect(rel(interfacialArea({ holdup: 0.1073, diameterM: d32 }), 123.5)).toBeLessThan(0.01);
 	});
 
 	it('gives the Akita–Yoshida (1973) kLa for oxygen in water (#17)', () => {
-		// #17 [D]: 0.0282 1/s with D_L = 2.0e-9 m²/s (diffusivity from memory), Sc = 502
+		// #17 [D]: 0.0282 1/s with D_L = 2.0e-9 m²/s (constants and diffusivity from memory), Sc = 502
 		expect(rel(akitaYoshidaKLa({ ...column, holdup: 0.1073, diffusivityM2S: 2e-9 }), 0.0282)).toBeLessThan(0.01);
 	});
 
 	it('gives the Higbie (1935) penetration coefficient (#18)', () => {
-		// #18 [D]: t_c = 0.012 s, k_L = 2√(2e-9/(π·0.012)) = 4.61e-4 m/s
+		// #18 [D]: t_c = 0.012 s, k_L = 2√(2e-9/(π·0.012)) = 4.61e-4 m/s (Higbie formula [S]; t_c = d/u_r from memory)
 		expect(rel(higbieMassTransferCoefficient({ diffusivityM2S: 2e-9, diameterM: 3e-3, slipMS: 0.25 }), 4.61e-4)).toBeLessThan(0.005);
 	});
 
 	it('gives the drift-flux holdups of a batch column (#19)', () => {
 		// #19 [D]: (σgΔρ/ρ_l²)^(1/4) = 0.1634 m/s; Ishii bubbly 0.2513, Ishii churn 0.1719, Zuber–Findlay 0.1613
+		// (Ishii 1977 and Zuber–Findlay 1965 coefficients from memory)
 		expect(rel(bubbleVelocityScale(driftInput), 0.1634)).toBeLessThan(0.002);
 		expect(rel(ishiiDistributionParameter(driftInput), 1.1931)).toBeLessThan(5e-4);
 		expect(rel(ishiiBubblyHoldup(driftInput), 0.2513)).toBeLessThan(0.005);
@@ -68,7 +69,7 @@ describe('bubble-column design correlations (PHYSICS §15)', () => {
 	});
 
 	it('gives the Wallis n = 2 holdup of a batch column (#20)', () => {
-		// #20 [D]: α(1 − α) = 0.05/0.25 = 0.2 → α = 0.2764
+		// #20 [D]: α(1 − α) = 0.05/0.25 = 0.2 → α = 0.2764 (Wallis 1969 drift-flux form, from memory)
 		expect(rel(wallisHoldup({ superficialGasVelocityMS: 0.05, swarmVelocityMS: 0.25, exponent: 2 }), 0.2764)).toBeLessThan(0.001);
 	});
 
@@ -105,6 +106,7 @@ describe('fluid presets and derived numbers', () => {
 
 	it('derives the air–water groups of the default case', () => {
 		// PHYSICS §14 [D]: Mo = 2.58e-11; 4 mm Schiller–Naumann bubble in Newton range: U = √(4/3 g d Δρ/(0.44 ρ_l))
+		// (Schiller & Naumann constant 0.44 from memory)
 		const d = derivedNumbers(defaultCase());
 		expect(rel(d.morton, 2.58e-11)).toBeLessThan(0.01);
 		const rhoSp = d.spargerGasDensityKgM3;

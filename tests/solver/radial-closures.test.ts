@@ -11,7 +11,8 @@ const lift = (diameterM: number, reynolds = 1000) => tomiyamaLiftCoefficient({ d
 
 describe('Tomiyama et al. (2002) lift coefficient with the Wellek et al. (1966) bubble width', () => {
 	it('changes sign at a volume-equivalent diameter of 5.8 mm for air–water (PHYSICS §15 #10)', () => {
-		// #10 [D]: f(Eo_d) = 0 at Eo_d = 6.061, d_H = 6.71 mm, d = 5.84 mm; assert 5.8 ± 0.1 mm
+		// #10 [D]: f(Eo_d) = 0 at Eo_d = 6.061, d_H = 6.71 mm, d = 5.84 mm; assert 5.8 ± 0.1 mm (Tomiyama coefficients
+		// other than 0.00105 and the Wellek constants 0.163/0.757 from memory, PHYSICS §4)
 		let lo = 5e-3;
 		let hi = 7e-3;
 		expect(lift(lo)).toBeGreaterThan(0);
@@ -29,7 +30,7 @@ describe('Tomiyama et al. (2002) lift coefficient with the Wellek et al. (1966) 
 	});
 
 	it('gives the check values of PHYSICS §15 #11 at 5 mm, 7 mm and on the saturated branch', () => {
-		// #11 [D]: C_L(5 mm) = 0.183, C_L(7 mm) = −0.247, f(10.7) = −0.278, C_L(Eo_d > 10.7) = −0.27, abs 1e-3
+		// #11 [D]: C_L(5 mm) = 0.183, C_L(7 mm) = −0.247, f(10.7) = −0.278, C_L(Eo_d > 10.7) = −0.27, abs 1e-3 (from memory)
 		expect(Math.abs(lift(5e-3) - 0.183)).toBeLessThan(1e-3);
 		expect(Math.abs(lift(7e-3) - -0.247)).toBeLessThan(1e-3);
 		expect(Math.abs(tomiyamaLiftPolynomial(10.7) - -0.278)).toBeLessThan(1e-3);
@@ -41,7 +42,7 @@ describe('Tomiyama et al. (2002) lift coefficient with the Wellek et al. (1966) 
 	});
 
 	it('caps small bubbles at 0.288 tanh(0.121 Re), below the polynomial', () => {
-		// Tomiyama et al. (2002): the small-bubble branch; at d = 3 mm f(Eo_d) ≈ 0.38 exceeds the 0.288 plateau
+		// Tomiyama et al. (2002): the small-bubble branch (from memory); at d = 3 mm f(Eo_d) ≈ 0.38 exceeds the 0.288 plateau
 		expect(lift(3e-3, 700)).toBeCloseTo(0.288 * Math.tanh(0.121 * 700), 12);
 		expect(lift(3e-3, 5)).toBeCloseTo(0.288 * Math.tanh(0.605), 12);
 	});
@@ -85,7 +86,7 @@ describe('wall lubrication laws', () => {
 	});
 
 	it('Tomiyama: the two walls of the pipe balance on the axis, and C_W(Eo) is continuous', () => {
-		// Tomiyama (1998), pipe form [1/y² − 1/(D − y)²]: zero at y = D/2
+		// Tomiyama (1998), pipe form [1/y² − 1/(D − y)²] (from memory): zero at y = D/2
 		expect(force('tomiyama', 0.1)).toBe(0);
 		expect(force('tomiyama', 0.099)).toBeGreaterThan(0);
 		// PHYSICS §5 [D]: 0.4705 at Eo = 1; 0.01127 vs 0.01125 at Eo = 5; 0.1790 at Eo = 33
@@ -95,7 +96,7 @@ describe('wall lubrication laws', () => {
 	});
 
 	it('Hosokawa: decays as 1/y², so it is negligible a few diameters out', () => {
-		// Hosokawa et al. (2002): F ∝ C_W d/(2 y²)
+		// Hosokawa et al. (2002), from memory: F ∝ C_W d/(2 y²)
 		expect(force('hosokawa', 2 * d) / force('hosokawa', d)).toBeCloseTo(0.25, 12);
 		expect(force('hosokawa', 10 * d) / force('hosokawa', 0.5 * d)).toBeCloseTo(0.0025, 12);
 		// C_W = max(7/Re^1.9, 0.0217 Eo): the Eo branch for a 4 mm bubble at Re = 1000
@@ -106,7 +107,7 @@ describe('wall lubrication laws', () => {
 
 describe('liquid turbulence closures', () => {
 	it('gives the Sato bubble-induced viscosity of PHYSICS §15 #34', () => {
-		// #34 [D]: 0.6·998.2·0.1·0.003·0.25 = 0.0449 Pa·s
+		// #34 [D]: 0.6·998.2·0.1·0.003·0.25 = 0.0449 Pa·s (Sato & Sekoguchi 1975, C_μb = 0.6 from memory)
 		expect(satoViscosityPaS({ liquidDensityKgM3: 998.2, holdup: 0.1, diameterM: 0.003, slipVelocityMS: 0.25 })).toBeCloseTo(0.044919, 6);
 	});
 
