@@ -35,7 +35,10 @@ export const DRAG_LAW_CODES: Record<DragLaw, number> = {
  * Stokes (1851): 24. Schiller & Naumann (1933): 24(1 + 0.15 Re^0.687), 0.44 Re above Re = 1000.
  * Ishii & Zuber (1979): viscous 24(1 + 0.1 Re_m^0.75)/(1 − α), distorted (2/3)√Eo·[(1 + 17.67 f^(6/7))/(18.67 f)]²,
  * cap (8/3)(1 − α)², with μ_m = μ_l/(1 − α), f = (1 − α)^1.5.
- * Tomiyama, Kataoka, Zun & Sakaguchi (1998), JSME Int. J. B 41, 472: pure / slightly contaminated / contaminated.
+ * (Stokes, Schiller–Naumann and Ishii–Zuber constants from memory, PHYSICS §1.1–1.4.)
+ * Tomiyama, Kataoka, Zun & Sakaguchi (1998), JSME Int. J. B 41, 472: pure / slightly contaminated / contaminated:
+ *   max{min[(16/Re)(1 + 0.15 Re^0.687), 48/Re], (8/3) Eo/(Eo + 4)}, the same with 24 and 72, and
+ *   max{(24/Re)(1 + 0.15 Re^0.687), (8/3) Eo/(Eo + 4)} (PHYSICS §1.5).
  */
 export function dragCoefficientTimesReynolds(input: DragInput): number {
 	return dragCdRe(DRAG_LAW_CODES[input.law], input.reynolds, input.eotvos, input.holdup);

@@ -17,7 +17,9 @@
  *   4 ≤ Eo_d ≤ 10.7: C_L = f(Eo_d)
  *   Eo_d > 10.7:     C_L = −0.27
  *   f(Eo_d) = 0.00105 Eo_d³ − 0.0159 Eo_d² − 0.0204 Eo_d + 0.474
- * Validated for glycerol–water (−5.5 ≤ log Mo ≤ −2.8, 1.39 ≤ Eo ≤ 5.74); widely extrapolated to
+ * The 0.00105 coefficient and the Wellek-type d_H relation were confirmed in a public source; the other
+ * coefficients (0.288, 0.121, 0.0159, 0.0204, 0.474, 4, 10.7, −0.27) and 0.163/0.757 are from memory (PHYSICS §4).
+ * Validated for glycerol–water (−5.5 ≤ log Mo ≤ −2.8, 1.39 ≤ Eo ≤ 5.74, from memory); widely extrapolated to
  * air–water, where C_L changes sign at d ≈ 5.8 mm.
  *
  * Example: air–water at 20 °C, d = 7 mm → C_L ≈ −0.247.

@@ -9,7 +9,10 @@ import type { CaseDocument } from '../case.js';
 
 export type SwarmCorrection = CaseDocument['closures']['swarm'];
 
-/** Richardson & Zaki (1954), Trans. Inst. Chem. Eng. 32, 35: exponent n from the terminal Reynolds number (wall term omitted). */
+/**
+ * Richardson & Zaki (1954), Trans. Inst. Chem. Eng. 32, 35: exponent n from the terminal Reynolds number
+ * (wall term omitted): 4.65 (Re_t < 0.2), 4.4 Re_t^−0.03 (< 1), 4.4 Re_t^−0.1 (< 500), 2.39 (from memory, PHYSICS §1.8).
+ */
 export function richardsonZakiExponent(terminalReynolds: number): number {
 	const re = terminalReynolds;
 	if (re < 0.2) return 4.65;
@@ -18,7 +21,7 @@ export function richardsonZakiExponent(terminalReynolds: number): number {
 	return 2.39;
 }
 
-/** Wallis (1969), One-Dimensional Two-Phase Flow: n = 2 for small bubbles (common practice). */
+/** Wallis (1969), One-Dimensional Two-Phase Flow: n = 2 for small bubbles (common practice; from memory, PHYSICS §1.8). */
 export const WALLIS_EXPONENT = 2;
 
 /** Exponent n of the swarm slip U_t(1 − α)^(n−1), or 1 (no correction). */

@@ -8,7 +8,7 @@
  *     μ_t,SI = ρ_l ℓ² |∂u_l/∂r|,  ℓ/R = 0.14 − 0.08 (1 − y/R)² − 0.06 (1 − y/R)⁴, y = R − r.
  *   ℓ/R = 0.14 on the axis and ℓ ≈ 0.4 y at the wall.
  * - Bubble-induced, Sato & Sekoguchi (1975), Int. J. Multiphase Flow 2, 79–95:
- *     μ_t,BI = C_μb ρ_l α d |u_r|,  C_μb = 0.6.
+ *     μ_t,BI = C_μb ρ_l α d |u_r|,  C_μb = 0.6 (from memory, PHYSICS §7).
  *   Example: α = 0.1, d = 3 mm, u_r = 0.25 m/s → 0.0449 Pa·s.
  * - Wall: the standard log-law wall function, u/u_τ = ln(E y⁺)/κ, κ = 0.41, E = 9.793 (common
  *   practice), switched to the viscous sublayer u⁺ = y⁺ below the intersection y⁺ ≈ 11.5.

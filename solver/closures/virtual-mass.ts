@@ -5,12 +5,12 @@ import type { CaseDocument } from '../case.js';
 
 export type VirtualMassModel = CaseDocument['closures']['virtualMass'];
 
-/** Zuber (1964), Chem. Eng. Sci. 19, 897: C_VM = ½ (1 + 2α)/(1 − α). */
+/** Zuber (1964), Chem. Eng. Sci. 19, 897: C_VM = ½ (1 + 2α)/(1 − α) (from memory, PHYSICS §2). */
 export function zuberVirtualMassCoefficient(holdup: number): number {
 	return (0.5 * (1 + 2 * holdup)) / (1 - holdup);
 }
 
-/** C_VM for a model: none → 0; constant → the given value (Lamb 1932: ½ for an isolated sphere); Zuber (1964). */
+/** C_VM for a model: none → 0; constant → the given value (Lamb 1932: ½ for an isolated sphere, from memory); Zuber (1964). */
 export function virtualMassCoefficient(o: { model: VirtualMassModel; holdup: number; constant?: number }): number {
 	if (o.model === 'none') return 0;
 	if (o.model === 'constant') return o.constant ?? 0.5;

@@ -51,7 +51,7 @@ export function ishiiChurnHoldup(o: DriftFluxInput): number {
 }
 
 /**
- * Wallis (1969): drift flux j_gl = (1 − α) j_g − α j_l = U_∞ α (1 − α)^n; the lower root (bubbly branch).
+ * Wallis (1969): drift flux j_gl = (1 − α) j_g − α j_l = U_∞ α (1 − α)^n (from memory); the lower root (bubbly branch).
  * Returns NaN when the operating line misses the curve (flooding).
  */
 export function wallisHoldup(o: { superficialGasVelocityMS: number; superficialLiquidVelocityMS?: number; swarmVelocityMS: number; exponent: number }): number {
