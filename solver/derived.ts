@@ -103,11 +103,16 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 		regimeLabel: regime.label,
 		cellSizeM: dz,
 		firstTimeStepS: (c.numerics.cflNumber * dz) / Math.max(ut + Math.abs(c.sparging.superficialLiquidVelocityMS) + massFlux / rhoTop, 1e-3),
-		// Zuber's C_VM grows with α; its value at α = 0.3 stands for the range where the limit matters
-		wellPosedUpToHoldup: hyperbolicityLimitHoldup({
-			virtualMassCoefficient: virtualMassCoefficient({ model: c.closures.virtualMass, holdup: 0.3, constant: c.closures.virtualMassCoefficient }),
-			interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient
-		}),
+		// Zuber's C_VM grows with α; its value at α = 0.3 stands for the range where the limit matters. With no
+		// interfacial pressure the characteristics are complex for any slip once ρ_g > 0 (PHYSICS §3.1, §3.3), which
+		// the ρ_g → 0 limit of the criterion misses when there is no virtual mass either
+		wellPosedUpToHoldup:
+			c.closures.interfacialPressureCoefficient > 0
+				? hyperbolicityLimitHoldup({
+						virtualMassCoefficient: virtualMassCoefficient({ model: c.closures.virtualMass, holdup: 0.3, constant: c.closures.virtualMassCoefficient }),
+						interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient
+					})
+				: 0,
 		warnings
 	};
 }

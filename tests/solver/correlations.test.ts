@@ -120,6 +120,18 @@ describe('fluid presets and derived numbers', () => {
 		expect(d.warnings).toEqual([]);
 	});
 
+	it('calls a model without interfacial pressure well-posed nowhere, with or without virtual mass', () => {
+		// PHYSICS §3.1 [S], §3.3 [D]: Δp = 0 gives complex characteristics for any u_r ≠ 0 (ρ_g > 0)
+		for (const vm of ['none', 'constant'] as const) {
+			const c = defaultCase();
+			c.closures.virtualMass = vm;
+			c.closures.interfacialPressureCoefficient = 0;
+			const d = derivedNumbers(c);
+			expect(d.wellPosedUpToHoldup).toBe(0);
+			expect(d.warnings.some((w) => /not well-posed/.test(w))).toBe(true);
+		}
+	});
+
 	it('warns about Stokes drag outside its range and a model without virtual mass', () => {
 		const c = defaultCase();
 		c.closures.drag = 'stokes';
