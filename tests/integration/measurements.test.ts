@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq, sql } from 'drizzle-orm';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { columns, measurements } from '../../src/lib/server/db/schema.js';
-import { parseMeasurementCsv } from '../../src/lib/measurements/csv.js';
+import { MAX_DATA_ROWS, MAX_FILE_BYTES, parseMeasurementCsv } from '../../src/lib/measurements/csv.js';
 import { reaerationConcentration } from '../../src/lib/measurements/reaeration.js';
 import { openTestDb } from '../helpers/db.js';
 import { startApp, type RunningApp } from '../helpers/app.js';
@@ -107,6 +107,23 @@ describe('measurement uploads', () => {
 			expect(res.status).toBe(400);
 			expect(await res.text()).toContain(message);
 		}
+		// an empty file, a file over the size limit and one over the row limit
+		const empty = await upload(analyst, holdupForm, '');
+		expect(empty.status).toBe(400);
+		expect(await empty.text()).toContain('Choose a CSV file');
+		const blank = await upload(analyst, holdupForm, '\n\n');
+		expect(blank.status).toBe(400);
+		expect(await blank.text()).toContain('The file is empty');
+		const big = await upload(analyst, holdupForm, `10,4\n${'#'.repeat(MAX_FILE_BYTES)}`);
+		expect(big.status).toBe(400);
+		expect(await big.text()).toContain(`The file is ${MAX_FILE_BYTES + 5} bytes; the limit is ${MAX_FILE_BYTES} bytes`);
+		const long = await upload(
+			analyst,
+			{ ...holdupForm, kind: 'dissolved-oxygen', xUnit: 's', yUnit: 'mg/L' },
+			Array.from({ length: MAX_DATA_ROWS + 1 }, (_, i) => `${i},5`).join('\n')
+		);
+		expect(long.status).toBe(400);
+		expect(await long.text()).toContain(`The file has ${MAX_DATA_ROWS + 1} data rows; the limit is ${MAX_DATA_ROWS}`);
 		// a file with many good rows and one bad one is refused whole
 		const rows = Array.from({ length: 200 }, (_, i) => `${i + 1},${(i % 30) + 1}`);
 		rows[150] = '151,-3';
