@@ -3,9 +3,10 @@
  *
  * The run row is the authority, not the pg-boss job. A handler first *claims* the run (status
  * queued|running, its job id, no cancel request), and every later write is conditioned on
- * `job_id` and `worker_id` still being ours: if the heartbeat sweeper has meanwhile handed the run to
- * another job, this handler's writes match nothing, it notices, and stops without writing. So no
- * run is worked by two handlers at once, even across machines.
+ * `job_id`, `worker_id` and `attempts` still being this attempt's: if the heartbeat sweeper has
+ * meanwhile handed the run to another job (or pg-boss retried this one), this handler's writes match
+ * nothing, it notices, and stops without writing. So no run is worked by two handlers at once,
+ * even across machines.
  *
  * Writes, all from this main thread and strictly in order (one promise chain):
  * - every `flushIntervalMs` (~100 ms): the new residual rows (insert … on conflict do nothing), the
@@ -72,7 +73,9 @@ function describeTime(o: { step: number; timeS: number }): string {
 export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>): Promise<void> {
 	const { runId } = job.data;
 	const { pool } = ctx.handle;
-	const mine = () => and(eq(runs.id, runId), eq(runs.jobId, job.id), eq(runs.workerId, ctx.workerId));
+	// ownership is per attempt: a retry of the same job in the same process is a different owner
+	let attempt = 0;
+	const mine = () => and(eq(runs.id, runId), eq(runs.jobId, job.id), eq(runs.workerId, ctx.workerId), eq(runs.attempts, attempt));
 
 	// ---- claim
 	const claimed = await withTransaction(pool, async (tx) => {
@@ -104,6 +107,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 		return null;
 	});
 	if (!claimed) return;
+	attempt = claimed.attempts;
 	const caseDoc: CaseDocument = claimed.caseDocument;
 
 	const [cpRow] = await ctx.handle.db.select({ data: checkpoints.data }).from(checkpoints).where(eq(checkpoints.runId, runId));
