@@ -4,6 +4,7 @@ import { requireMember } from '$lib/server/guard';
 import { db } from '$lib/server/db/app';
 import { columns, runs, signOffs } from '$lib/server/db/schema';
 import { countColumns } from '$lib/server/columns';
+import { homeAdditions } from '$lib/server/home';
 
 /** The team home: runs in progress, recent results, items awaiting sign-off. */
 export const load: PageServerLoad = async (event) => {
@@ -47,6 +48,7 @@ export const load: PageServerLoad = async (event) => {
 		columnCount: await countColumns(team.id),
 		inProgress,
 		recent,
-		awaiting: verdicts.filter((v) => v.verdict === 'changes-requested')
+		awaiting: verdicts.filter((v) => v.verdict === 'changes-requested'),
+		...(await homeAdditions({ teamId: team.id }))
 	};
 };

@@ -1,0 +1,82 @@
+/**
+ * Names and SI units of the snapshot fields and residuals the solver writes, for chart axes,
+ * tables and CSV headers. Unknown names fall back to the id itself and a '?' unit.
+ */
+export const fieldInfo: Record<string, { label: string; unit: string }> = {
+	holdup: { label: 'gas holdup', unit: '1' },
+	gasVelocity: { label: 'gas velocity', unit: 'm/s' },
+	liquidVelocity: { label: 'liquid velocity', unit: 'm/s' },
+	slip: { label: 'slip velocity', unit: 'm/s' },
+	pressure: { label: 'pressure', unit: 'Pa' },
+	gasDensity: { label: 'gas density', unit: 'kg/m³' },
+	effectiveViscosity: { label: 'effective viscosity', unit: 'Pa·s' },
+	liftForce: { label: 'lift force', unit: 'N/m³' },
+	wallLubricationForce: { label: 'wall-lubrication force', unit: 'N/m³' },
+	dispersionForce: { label: 'turbulent-dispersion force', unit: 'N/m³' },
+	dragForce: { label: 'radial drag force', unit: 'N/m³' }
+};
+
+export function fieldLabel(id: string): { label: string; unit: string } {
+	return fieldInfo[id] ?? { label: id, unit: '?' };
+}
+
+/**
+ * Charts show pressures in kPa: axis labels of six-digit pascals overlap. Everything else is
+ * drawn in its SI unit.
+ */
+const chartUnits: Record<string, { unit: string; factor: number }> = {
+	Pa: { unit: 'kPa', factor: 1e-3 }
+};
+
+/** Axis title with the unit as drawn, e.g. `gas velocity (m/s)`; dimensionless shows `(–)`. */
+export function axisTitle(id: string): string {
+	const f = fieldLabel(id);
+	const u = chartUnits[f.unit]?.unit ?? f.unit;
+	return `${f.label} (${u === '1' ? '–' : u})`;
+}
+
+/** A field's values in the unit its chart axis states. */
+export function chartValues(id: string, values: ArrayLike<number>): ArrayLike<number> {
+	const c = chartUnits[fieldLabel(id).unit];
+	return c ? Array.from(values, (v) => v * c.factor) : values;
+}
+
+/** The same for a value with an explicit SI unit (time histories). */
+export function chartUnit(unit: string): { unit: string; factor: number } {
+	return chartUnits[unit] ?? { unit, factor: 1 };
+}
+
+/** What the position axis of a case kind means. */
+export function positionTitle(kind: string): string {
+	return kind === 'cross-section' ? 'radius (m)' : 'height above sparger (m)';
+}
+
+/** Order in which the run page shows a kind's profiles. */
+export function profileOrder(kind: string): string[] {
+	return kind === 'cross-section'
+		? ['holdup', 'liquidVelocity', 'gasVelocity', 'effectiveViscosity', 'liftForce', 'wallLubricationForce', 'dispersionForce', 'dragForce']
+		: ['holdup', 'gasVelocity', 'liquidVelocity', 'slip', 'pressure', 'gasDensity'];
+}
+
+/** Reading order of design numbers (the stored jsonb summary does not keep key order). */
+export const designOrder = [
+	'overallHoldup',
+	'aeratedHeightM',
+	'levelSwellM',
+	'spargerPressurePa',
+	'gasResidenceTimeS',
+	'meanSlipMS',
+	'interfacialAreaPerM',
+	'kLaPerS',
+	'regime',
+	'sectionHoldup',
+	'centrelineLiquidVelocityMS',
+	'reversalRadiusRatio',
+	'peakLocation',
+	'axialPressureGradientPaM',
+	'liquidMassErrorRel'
+];
+
+export function designRank(id: string): number {
+	return designOrder.indexOf(id) + 1 || designOrder.length + 1;
+}

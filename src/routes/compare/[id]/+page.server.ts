@@ -1,0 +1,70 @@
+import { error, fail } from '@sveltejs/kit';
+import { and, eq } from 'drizzle-orm';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+import { requireMember } from '$lib/server/guard';
+import { hasRole } from '$lib/server/roles';
+import { db } from '$lib/server/db/app';
+import { columns, measurements } from '$lib/server/db/schema';
+import * as comparisons from '$lib/server/comparisons';
+import * as signoffs from '$lib/server/signoffs';
+import { formValues } from '$lib/server/forms';
+
+async function loadComparison(event: RequestEvent, teamId: string) {
+	const c = await comparisons.getComparison({ teamId, id: event.params.id });
+	if (!c) error(404, 'Comparison not found.');
+	return c;
+}
+
+export const load: PageServerLoad = async (event) => {
+	const member = await requireMember(event, 'viewer');
+	const c = await loadComparison(event, member.team.id);
+	const [column] = await db.select({ id: columns.id, tag: columns.tag }).from(columns).where(eq(columns.id, c.columnId));
+	const runs = await comparisons.loadComparedRuns({ teamId: member.team.id, runIds: c.runIds });
+	const [measurement] = c.measurementId
+		? await db
+				.select({ id: measurements.id, name: measurements.name, kind: measurements.kind, data: measurements.data })
+				.from(measurements)
+				.where(and(eq(measurements.id, c.measurementId), eq(measurements.teamId, member.team.id)))
+		: [];
+	return {
+		comparison: { id: c.id, name: c.name, baselineRunId: c.baselineRunId, createdAt: c.createdAt },
+		column,
+		runs,
+		measurement: measurement ?? null,
+		canSignOff: hasRole(member.role, 'lead'),
+		signOffs: await signoffs.listSignOffs({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id }),
+		comments: await signoffs.listComments({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id })
+	};
+};
+
+export const actions: Actions = {
+	signOff: async (event) => {
+		const member = await requireMember(event, 'lead');
+		const c = await loadComparison(event, member.team.id);
+		const values = formValues(await event.request.formData());
+		const parsed = signoffs.signOffForm.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { signOff: { values, errors: Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.') || 'verdict', i.message])) } });
+		}
+		const r = await signoffs.signOff({
+			teamId: member.team.id,
+			subjectType: 'comparison',
+			subjectId: c.id,
+			subjectName: c.name,
+			subjectUrl: `${event.url.origin}/compare/${c.id}`,
+			userId: member.user.id,
+			signerEmail: member.user.email,
+			...parsed.data
+		});
+		return { signedOff: true, mailedTo: r.mailedTo, mailError: r.mailError };
+	},
+	comment: async (event) => {
+		const member = await requireMember(event, 'viewer');
+		const c = await loadComparison(event, member.team.id);
+		const values = formValues(await event.request.formData());
+		const parsed = signoffs.commentForm.safeParse(values);
+		if (!parsed.success) return fail(400, { comment: { values, errors: { body: parsed.error.issues[0].message } } });
+		await signoffs.addComment({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id, userId: member.user.id, body: parsed.data.body });
+		return { commented: true };
+	}
+};

@@ -1,0 +1,54 @@
+import { fail, redirect } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+import { requireMember, requireTeamRow } from '$lib/server/guard';
+import { columns } from '$lib/server/db/schema';
+import * as comparisons from '$lib/server/comparisons';
+
+/** Leads pick 2–6 finished runs of one column and a baseline. */
+export const load: PageServerLoad = async (event) => {
+	const { team } = await requireMember(event, 'lead');
+	const column = await requireTeamRow({ table: columns, id: event.url.searchParams.get('column') ?? '', teamId: team.id, what: 'Column' });
+	const runs = await comparisons.listComparableRuns({ teamId: team.id, columnId: column.id });
+	return {
+		column: { id: column.id, tag: column.tag },
+		runs: runs.map((r) => ({
+			id: r.id,
+			caseId: r.caseId,
+			caseName: r.caseDocument.name,
+			kind: r.caseDocument.kind,
+			drag: r.caseDocument.closures.drag,
+			cells: r.caseDocument.numerics.cells,
+			superficialGasVelocityMS: r.caseDocument.sparging.superficialGasVelocityMS,
+			status: r.status,
+			queuedAt: r.queuedAt
+		})),
+		limits: { min: comparisons.MIN_RUNS, max: comparisons.MAX_RUNS }
+	};
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const member = await requireMember(event, 'lead');
+		const column = await requireTeamRow({ table: columns, id: event.url.searchParams.get('column') ?? '', teamId: member.team.id, what: 'Column' });
+		const fd = await event.request.formData();
+		const values = {
+			name: String(fd.get('name') ?? ''),
+			runIds: fd.getAll('runIds').map(String),
+			baselineRunId: String(fd.get('baselineRunId') ?? '')
+		};
+		const parsed = comparisons.comparisonForm.safeParse(values);
+		if (!parsed.success) {
+			const errors: Record<string, string> = {};
+			for (const i of parsed.error.issues) errors[String(i.path[0] ?? 'form')] ??= i.message;
+			return fail(400, { values, errors });
+		}
+		let id: string;
+		try {
+			id = (await comparisons.createComparison({ teamId: member.team.id, columnId: column.id, userId: member.user.id, input: parsed.data })).id;
+		} catch (e) {
+			if (e instanceof comparisons.ComparisonError) return fail(400, { values, errors: { runIds: e.message } as Record<string, string> });
+			throw e;
+		}
+		redirect(303, `/compare/${id}`);
+	}
+};
