@@ -63,6 +63,10 @@ export async function startApp(options: { env?: Record<string, string> } = {}): 
 		},
 		stdio: ['ignore', 'pipe', 'pipe']
 	});
+	// a test process that dies without its afterAll must not leave the app running
+	const killOnExit = () => child.kill('SIGKILL');
+	process.once('exit', killOnExit);
+	child.once('exit', () => process.off('exit', killOnExit));
 	child.stdout?.on('data', (d) => (log += d));
 	child.stderr?.on('data', (d) => (log += d));
 	const deadline = Date.now() + 30_000;
