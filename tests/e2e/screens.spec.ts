@@ -89,6 +89,8 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	await setField(page, 'numerics.cells', '5');
 	await expect(page.getByTestId('error-numerics.cells')).toHaveText('Cells must be at least 10');
 	await expect(page.getByTestId('derived-terminalVelocityMS')).toHaveText('—');
+	// the derived-numbers panel is sticky: shoot from the top so it sits beside the first sections
+	await page.evaluate(() => window.scrollTo(0, 0));
 	await page.screenshot({ path: `${SHOTS}/10-case-editor-error.png`, fullPage: true });
 
 	// the form refuses to save while the error stands
@@ -96,8 +98,11 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	await expect(page.getByTestId('error-numerics.cells')).toBeVisible();
 	await expect(page).toHaveURL(/\/cases\/new/);
 
-	await setField(page, 'numerics.cells', '800');
-	await expect(page.getByTestId('error-numerics.cells')).toHaveCount(0);
+	// the refused submit validates asynchronously; retype until the fix is what is validated last
+	await expect(async () => {
+		await setField(page, 'numerics.cells', '800');
+		await expect(page.getByTestId('error-numerics.cells')).toHaveCount(0, { timeout: 1000 });
+	}).toPass({ timeout: 15_000 });
 	await setField(page, 'numerics.endTimeS', '60');
 	await setField(page, 'numerics.steadyTolerance', '1e-12');
 	// unit choice on entry: 4 cm/s is stored as 0.04 m/s
