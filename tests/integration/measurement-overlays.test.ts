@@ -7,6 +7,8 @@ import { defaultCase } from '../../solver/case.js';
 import { openTestDb } from '../helpers/db.js';
 import { testDatabaseUrl } from '../helpers/env.js';
 import { createTestTeam, type TestTeam } from '../helpers/team.js';
+import { startApp, type RunningApp } from '../helpers/app.js';
+import { signedInClient } from '../helpers/http.js';
 
 // the app's database module reads DATABASE_URL when first imported: point it at the test database
 process.env.DATABASE_URL ??= testDatabaseUrl();
@@ -57,7 +59,10 @@ beforeAll(async () => {
 	measurementId = m.id;
 });
 
+let app: RunningApp | undefined;
+
 afterAll(async () => {
+	await app?.stop();
 	await handle?.close();
 });
 
@@ -97,5 +102,25 @@ describe('error measures of runs against a measurement', () => {
 		expect(r!.ranked.map((x) => x.operatingPointMatches)).toEqual([true, true, false]);
 		const outsider = await createTestTeam({ db: handle.db });
 		expect(await server.rankRunsAgainstMeasurement({ teamId: outsider.team.id, columnId, runIds, measurementId })).toBeNull();
+	});
+
+	it('shows the error measures on the run page and the measurements on the column page', async () => {
+		app = await startApp();
+		const viewer = await signedInClient(app.baseUrl, t.members.viewer);
+		const runPage = await viewer.get(`/runs/${runIds[0]}`);
+		expect(runPage.status).toBe(200);
+		const html = await runPage.text();
+		expect(html).toContain('data-testid="run-measurement-errors"');
+		expect(html).toContain('probe traverse');
+		// RMSE 0.0223607 shown to three significant figures
+		expect(html).toContain('0.0224');
+		const other = await viewer.get(`/runs/${runIds[2]}`);
+		expect(await other.text()).toContain('No measurement of this column matches this run');
+		const columnPage = await viewer.get(`/columns/${columnId}`);
+		const columnHtml = await columnPage.text();
+		expect(columnHtml).toContain('data-testid="column-measurements"');
+		expect(columnHtml).toContain(`/columns/${columnId}/measurements/${measurementId}`);
+		// viewers get no upload or import button
+		expect(columnHtml).not.toContain(`/columns/${columnId}/measurements/new`);
 	});
 });

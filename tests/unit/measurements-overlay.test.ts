@@ -9,7 +9,7 @@ describe('measurement overlays', () => {
 
 	it('picks the measurement that goes with the charted field and scales it', () => {
 		expect(overlayPoints({ items, caseKind: 'height-profile', field: 'pressure', scale: 1e-3 })).toEqual({ label: 'taps', x: [0.5, 1], y: [110, 105] });
-		expect(overlayPoints({ items, caseKind: 'cross-section', field: 'holdup' })?.label).toBe('radial');
+		expect(overlayPoints({ items, caseKind: 'cross-section', field: 'holdup', xScale: 0.1 })).toEqual({ label: 'radial', x: [0.05], y: [0.1] });
 		expect(overlayPoints({ items, caseKind: 'height-profile', field: 'holdup' })).toBeNull();
 	});
 

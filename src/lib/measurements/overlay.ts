@@ -14,12 +14,20 @@ export interface OverlayItem {
  * case of kind `caseKind`: the first matching measurement of the kind that compares with that
  * field, its y multiplied by `scale` (e.g. 1e-3 for a chart in kPa). Null if none.
  */
-export function overlayPoints(opts: { items: OverlayItem[]; caseKind: string; field: string; scale?: number }): { label: string; x: number[]; y: number[] } | null {
+export function overlayPoints(opts: {
+	items: OverlayItem[];
+	caseKind: string;
+	field: string;
+	scale?: number;
+	/** multiplies x: the column radius (m) puts a radial measurement's r/R on a chart in metres */
+	xScale?: number;
+}): { label: string; x: number[]; y: number[] } | null {
 	const scale = opts.scale ?? 1;
+	const xScale = opts.xScale ?? 1;
 	for (const it of opts.items) {
 		const pair = profileFieldOfKind[it.measurement.kind];
 		if (pair && pair.caseKind === opts.caseKind && pair.field === opts.field) {
-			return { label: it.measurement.name, x: it.measurement.data.x, y: it.measurement.data.y.map((v) => v * scale) };
+			return { label: it.measurement.name, x: it.measurement.data.x.map((v) => v * xScale), y: it.measurement.data.y.map((v) => v * scale) };
 		}
 	}
 	return null;

@@ -280,7 +280,8 @@ export interface MeasurementAgainstRun {
 export async function measurementsForRun(options: {
 	teamId: string;
 	run: { id: string; columnId: string; caseDocument: CaseDocument };
-	snapshot?: DecodedSnapshot | null;
+	/** the run's final profiles if the caller has them already (arrays or typed arrays) */
+	snapshot?: { x: ArrayLike<number>; fields: Record<string, ArrayLike<number>> } | null;
 }): Promise<MeasurementAgainstRun[]> {
 	const doc = options.run.caseDocument;
 	const kinds = (Object.keys(profileFieldOfKind) as MeasurementKind[]).filter((k) => profileFieldOfKind[k]?.caseKind === doc.kind);

@@ -7,6 +7,7 @@ import { db } from '$lib/server/db/app';
 import { columns, snapshots, users } from '$lib/server/db/schema';
 import * as runs from '$lib/server/runs';
 import { timeHistories, type TimeHistory } from '$lib/server/run-results';
+import { measurementsForRun } from '$lib/server/measurements';
 
 /**
  * The run page. The live part (residuals, progress, current profile) is fetched in the browser
@@ -44,7 +45,9 @@ export const load: PageServerLoad = async (event) => {
 		queuedBy: queuedBy ?? null,
 		canControl: hasRole(member.role, 'analyst'),
 		finalProfile,
-		histories
+		histories,
+		// measurements of the column at this operating point, with this run's error measures
+		measurementOverlay: ended ? await measurementsForRun({ teamId: member.team.id, run, snapshot: finalProfile }) : []
 	};
 };
 
