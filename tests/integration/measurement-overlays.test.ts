@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
-import { cases, columns, measurements, runs, snapshots } from '../../src/lib/server/db/schema.js';
+import { cases, columns, comparisons, measurements, runs, snapshots } from '../../src/lib/server/db/schema.js';
 import { encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode.js';
 import { defaultCase } from '../../solver/case.js';
 import { openTestDb } from '../helpers/db.js';
@@ -122,5 +122,25 @@ describe('error measures of runs against a measurement', () => {
 		expect(columnHtml).toContain(`/columns/${columnId}/measurements/${measurementId}`);
 		// viewers get no upload or import button
 		expect(columnHtml).not.toContain(`/columns/${columnId}/measurements/new`);
+	});
+
+	it('ranks a comparison by RMSE against the measurement chosen on its page and links the report', async () => {
+		app ??= await startApp();
+		const [cmp] = await handle.db
+			.insert(comparisons)
+			.values({ teamId: t.team.id, columnId, name: 'two holdup profiles', runIds: [runIds[1], runIds[0]], baselineRunId: runIds[1] })
+			.returning();
+		const lead = await signedInClient(app.baseUrl, t.members.lead);
+		const page = await lead.get(`/compare/${cmp.id}?measurement=${measurementId}`);
+		expect(page.status).toBe(200);
+		const html = await page.text();
+		const table = html.slice(html.indexOf('data-testid="comparison-ranking"'));
+		// ranked by RMSE: 0.0224 (first run) before 0.0283 (second run), as computed by hand above
+		expect(table.indexOf('0.0224')).toBeGreaterThan(0);
+		expect(table.indexOf('0.0283')).toBeGreaterThan(table.indexOf('0.0224'));
+		expect(html).toContain(`/compare/${cmp.id}/report`);
+		const report = await lead.get(`/compare/${cmp.id}/report`);
+		expect(report.status).toBe(200);
+		expect(await report.text()).toContain('probe traverse');
 	});
 });

@@ -8,6 +8,8 @@ import { columns, measurements } from '$lib/server/db/schema';
 import * as comparisons from '$lib/server/comparisons';
 import * as signoffs from '$lib/server/signoffs';
 import { formValues } from '$lib/server/forms';
+import { isUuid } from '$lib/server/guard';
+import { listMeasurementsForColumn, rankRunsAgainstMeasurement } from '$lib/server/measurements';
 
 async function loadComparison(event: RequestEvent, teamId: string) {
 	const c = await comparisons.getComparison({ teamId, id: event.params.id });
@@ -20,17 +22,24 @@ export const load: PageServerLoad = async (event) => {
 	const c = await loadComparison(event, member.team.id);
 	const [column] = await db.select({ id: columns.id, tag: columns.tag }).from(columns).where(eq(columns.id, c.columnId));
 	const runs = await comparisons.loadComparedRuns({ teamId: member.team.id, runIds: c.runIds });
-	const [measurement] = c.measurementId
+	// the measurement to rank against: `?measurement=<id>`, else the one saved with the comparison
+	const asked = event.url.searchParams.get('measurement');
+	const chosenId = asked && isUuid(asked) ? asked : c.measurementId;
+	const [measurement] = chosenId
 		? await db
 				.select({ id: measurements.id, name: measurements.name, kind: measurements.kind, data: measurements.data })
 				.from(measurements)
-				.where(and(eq(measurements.id, c.measurementId), eq(measurements.teamId, member.team.id)))
+				.where(and(eq(measurements.id, chosenId), eq(measurements.teamId, member.team.id), eq(measurements.columnId, c.columnId)))
 		: [];
+	const measurementChoices = await listMeasurementsForColumn({ teamId: member.team.id, columnId: c.columnId });
+	const ranking = measurement ? await rankRunsAgainstMeasurement({ teamId: member.team.id, columnId: c.columnId, runIds: c.runIds, measurementId: measurement.id }) : null;
 	return {
 		comparison: { id: c.id, name: c.name, baselineRunId: c.baselineRunId, createdAt: c.createdAt },
 		column,
 		runs,
 		measurement: measurement ?? null,
+		measurementChoices: measurementChoices.map((m) => ({ id: m.id, name: m.name, kind: m.kind })),
+		ranking: ranking ? { measurement: { id: ranking.measurement.id, kind: ranking.measurement.kind, name: ranking.measurement.name }, ranked: ranking.ranked } : null,
 		canSignOff: hasRole(member.role, 'lead'),
 		signOffs: await signoffs.listSignOffs({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id }),
 		comments: await signoffs.listComments({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id })
