@@ -5,7 +5,7 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from './db/app.js';
-import { comparisons, runs, snapshots, users } from './db/schema.js';
+import { comparisons, measurements, runs, snapshots, users } from './db/schema.js';
 import { decodeSnapshot } from './runs/codec.js';
 import { latestVerdicts } from './cases.js';
 
@@ -23,7 +23,9 @@ export const comparisonForm = z
 			.array(z.uuid())
 			.min(MIN_RUNS, { error: `Pick at least ${MIN_RUNS} runs` })
 			.max(MAX_RUNS, { error: `Pick at most ${MAX_RUNS} runs` }),
-		baselineRunId: z.uuid({ error: 'Pick a baseline run' })
+		baselineRunId: z.uuid({ error: 'Pick a baseline run' }),
+		/** optional measurement of the same column drawn over the profiles */
+		measurementId: z.union([z.uuid(), z.literal('')]).default('')
 	})
 	.refine((f) => f.runIds.includes(f.baselineRunId), { error: 'The baseline must be one of the picked runs', path: ['baselineRunId'] });
 export type ComparisonInput = z.infer<typeof comparisonForm>;
@@ -39,6 +41,13 @@ export async function createComparison(options: { teamId: string; columnId: stri
 	if (rows.length !== ids.length) throw new ComparisonError('Every run must belong to this column');
 	const unfinished = rows.filter((r) => !(COMPARABLE_STATUSES as readonly string[]).includes(r.status));
 	if (unfinished.length) throw new ComparisonError('Only converged or finished runs can be compared');
+	if (options.input.measurementId) {
+		const [m] = await db
+			.select({ id: measurements.id })
+			.from(measurements)
+			.where(and(eq(measurements.id, options.input.measurementId), eq(measurements.teamId, options.teamId), eq(measurements.columnId, options.columnId)));
+		if (!m) throw new ComparisonError('The measurement must belong to this column');
+	}
 	const [row] = await db
 		.insert(comparisons)
 		.values({
@@ -47,6 +56,7 @@ export async function createComparison(options: { teamId: string; columnId: stri
 			name: options.input.name,
 			runIds: ids,
 			baselineRunId: options.input.baselineRunId,
+			measurementId: options.input.measurementId || null,
 			createdBy: options.userId
 		})
 		.returning();
@@ -143,4 +153,13 @@ export async function listComparableRuns(options: { teamId: string; columnId: st
 		.where(and(eq(runs.teamId, options.teamId), eq(runs.columnId, options.columnId), inArray(runs.status, [...COMPARABLE_STATUSES])))
 		.orderBy(desc(runs.queuedAt))
 		.limit(100);
+}
+
+/** Measurements of a column a comparison may overlay (profiles only; time series do not overlay). */
+export async function listOverlayMeasurements(options: { teamId: string; columnId: string }) {
+	return db
+		.select({ id: measurements.id, name: measurements.name, kind: measurements.kind })
+		.from(measurements)
+		.where(and(eq(measurements.teamId, options.teamId), eq(measurements.columnId, options.columnId), inArray(measurements.kind, ['holdup-height', 'holdup-radial'])))
+		.orderBy(desc(measurements.createdAt));
 }

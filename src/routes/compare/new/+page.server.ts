@@ -22,7 +22,8 @@ export const load: PageServerLoad = async (event) => {
 			status: r.status,
 			queuedAt: r.queuedAt
 		})),
-		limits: { min: comparisons.MIN_RUNS, max: comparisons.MAX_RUNS }
+		limits: { min: comparisons.MIN_RUNS, max: comparisons.MAX_RUNS },
+		measurements: await comparisons.listOverlayMeasurements({ teamId: team.id, columnId: column.id })
 	};
 };
 
@@ -34,7 +35,8 @@ export const actions: Actions = {
 		const values = {
 			name: String(fd.get('name') ?? ''),
 			runIds: fd.getAll('runIds').map(String),
-			baselineRunId: String(fd.get('baselineRunId') ?? '')
+			baselineRunId: String(fd.get('baselineRunId') ?? ''),
+			measurementId: String(fd.get('measurementId') ?? '')
 		};
 		const parsed = comparisons.comparisonForm.safeParse(values);
 		if (!parsed.success) {
