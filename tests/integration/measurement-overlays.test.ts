@@ -139,6 +139,13 @@ describe('error measures of runs against a measurement', () => {
 		expect(table.indexOf('0.0224')).toBeGreaterThan(0);
 		expect(table.indexOf('0.0283')).toBeGreaterThan(table.indexOf('0.0224'));
 		expect(html).toContain(`/compare/${cmp.id}/report`);
+		// a lead keeps the choice with the comparison; a viewer may not
+		const viewer = await signedInClient(app.baseUrl, t.members.viewer);
+		expect((await viewer.post(`/compare/${cmp.id}?/measurement`, { measurementId })).status).toBe(403);
+		expect((await lead.post(`/compare/${cmp.id}?/measurement`, { measurementId })).status).toBe(200);
+		const [saved] = await handle.db.select().from(comparisons).where(eq(comparisons.id, cmp.id));
+		expect(saved.measurementId).toBe(measurementId);
+		expect(await (await lead.get(`/compare/${cmp.id}`)).text()).toMatch(/This is the comparison(&#39;|')s saved measurement/);
 		const report = await lead.get(`/compare/${cmp.id}/report`);
 		expect(report.status).toBe(200);
 		expect(await report.text()).toContain('probe traverse');

@@ -9,7 +9,7 @@ import * as comparisons from '$lib/server/comparisons';
 import * as signoffs from '$lib/server/signoffs';
 import { formValues } from '$lib/server/forms';
 import { isUuid } from '$lib/server/guard';
-import { listMeasurementsForColumn, rankRunsAgainstMeasurement } from '$lib/server/measurements';
+import { listMeasurementsForColumn, rankRunsAgainstMeasurement, setComparisonMeasurement } from '$lib/server/measurements';
 
 async function loadComparison(event: RequestEvent, teamId: string) {
 	const c = await comparisons.getComparison({ teamId, id: event.params.id });
@@ -41,12 +41,24 @@ export const load: PageServerLoad = async (event) => {
 		measurementChoices: measurementChoices.map((m) => ({ id: m.id, name: m.name, kind: m.kind })),
 		ranking: ranking ? { measurement: { id: ranking.measurement.id, kind: ranking.measurement.kind, name: ranking.measurement.name }, ranked: ranking.ranked } : null,
 		canSignOff: hasRole(member.role, 'lead'),
+		savedMeasurementId: c.measurementId,
 		signOffs: await signoffs.listSignOffs({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id }),
 		comments: await signoffs.listComments({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id })
 	};
 };
 
 export const actions: Actions = {
+	/** keep the measurement the runs are ranked against with the comparison (report and page default) */
+	measurement: async (event) => {
+		const member = await requireMember(event, 'lead');
+		const c = await loadComparison(event, member.team.id);
+		const id = String((await event.request.formData()).get('measurementId') ?? '');
+		if (!isUuid(id)) return fail(400, { measurementError: 'Choose a measurement first.' });
+		const [m] = await db.select({ id: measurements.id }).from(measurements).where(and(eq(measurements.id, id), eq(measurements.teamId, member.team.id), eq(measurements.columnId, c.columnId)));
+		if (!m) error(404, 'Measurement not found.');
+		await setComparisonMeasurement({ teamId: member.team.id, comparisonId: c.id, measurementId: m.id });
+		return { measurementSaved: true };
+	},
 	signOff: async (event) => {
 		const member = await requireMember(event, 'lead');
 		const c = await loadComparison(event, member.team.id);
