@@ -91,7 +91,7 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	await expect(page.getByTestId('derived-terminalVelocityMS')).toHaveText('—');
 	// the derived-numbers panel is sticky: shoot from the top so it sits beside the first sections
 	await page.evaluate(() => window.scrollTo(0, 0));
-	await page.screenshot({ path: `${SHOTS}/10-case-editor-error.png`, fullPage: true });
+	await page.screenshot({ path: `${SHOTS}/screens-10-case-editor-error.png`, fullPage: true });
 
 	// the form refuses to save while the error stands
 	await page.getByTestId('save-case').click();
@@ -115,7 +115,7 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	await expect(page.getByTestId('derived-terminalVelocityMS')).toContainText(/0\.[23]\d*/);
 	await expect(page.getByTestId('derived-cellSizeM')).toContainText('2.5'); // 2 m / 800 cells = 2.5 mm
 	await page.evaluate(() => window.scrollTo(0, 0));
-	await page.screenshot({ path: `${SHOTS}/11-case-editor.png`, fullPage: true });
+	await page.screenshot({ path: `${SHOTS}/screens-11-case-editor.png`, fullPage: true });
 
 	await page.getByTestId('save-case').click();
 	await expect(page.getByTestId('case-saved')).toBeVisible();
@@ -132,7 +132,7 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	// a screenshot with some history and the first profile on it
 	await expect.poll(() => residualPoints(page), { timeout: 30_000 }).toBeGreaterThan(first + 300);
 	await expect(page.getByTestId('run-profile-chart')).toBeVisible();
-	await page.screenshot({ path: `${SHOTS}/12-run-live.png`, fullPage: true });
+	await page.screenshot({ path: `${SHOTS}/screens-12-run-live.png`, fullPage: true });
 
 	await waitForEnd(page);
 	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/);
@@ -142,7 +142,7 @@ test('the analyst creates a case, sees a field error, fixes it, queues it and wa
 	await expect(page.getByTestId('correlation-checks')).toContainText('Akita–Yoshida');
 	await expect(page.getByTestId('mass-balance-error')).toContainText('%');
 	await expect(page.getByTestId('cautions')).toContainText('screening estimates');
-	await page.screenshot({ path: `${SHOTS}/13-run-done.png`, fullPage: true });
+	await page.screenshot({ path: `${SHOTS}/screens-13-run-done.png`, fullPage: true });
 
 	const csv = await page.request.get(`${new URL(page.url()).pathname}/profiles.csv`);
 	expect(csv.status()).toBe(200);
@@ -170,7 +170,7 @@ test('a viewer watches the same run live, has no controls, and a direct queue PO
 	await expect.poll(() => residualPoints(viewer), { timeout: 30_000 }).toBeGreaterThan(seen);
 	await expect(viewer.getByTestId('cancel-run')).toHaveCount(0);
 	await expect(viewer.getByTestId('rerun')).toHaveCount(0);
-	await viewer.screenshot({ path: `${SHOTS}/20-run-viewer.png` });
+	await viewer.screenshot({ path: `${SHOTS}/screens-20-run-viewer.png` });
 
 	// the analyst cancels; the viewer's open page follows without a reload
 	await analyst.getByTestId('cancel-run').click();
@@ -235,7 +235,7 @@ test('the lead compares two runs with different drag laws and signs off the basi
 	expect(delta).toMatch(/^[+−]/);
 	expect(Number(delta.slice(1).split(' ')[0])).toBeGreaterThan(0);
 	await expect(lead.getByTestId('compare-profile-chart')).toBeVisible();
-	await lead.screenshot({ path: `${SHOTS}/30-comparison.png`, fullPage: true });
+	await lead.screenshot({ path: `${SHOTS}/screens-30-comparison.png`, fullPage: true });
 
 	await lead.getByTestId('verdict-approved').check();
 	await lead.getByTestId('sign-off-comment-input').fill('Schiller–Naumann basis accepted for the pilot design.');
@@ -244,14 +244,14 @@ test('the lead compares two runs with different drag laws and signs off the basi
 	await lead.reload();
 	await expect(lead.getByTestId('sign-off-state')).toHaveAttribute('data-status', 'approved-basis');
 	await expect(lead.getByTestId('sign-off-comment')).toContainText('Schiller–Naumann basis accepted');
-	await lead.screenshot({ path: `${SHOTS}/31-comparison-signed.png`, fullPage: true });
+	await lead.screenshot({ path: `${SHOTS}/screens-31-comparison-signed.png`, fullPage: true });
 
 	// the state shows on the column page and on the home page
 	await lead.getByRole('link', { name: 'C-101' }).first().click();
 	await expect(lead.getByTestId('column-comparisons').getByRole('row', { name: /C-101 drag law check/ }).first()).toContainText('approved basis');
 	await lead.getByRole('link', { name: 'Home', exact: true }).click();
 	await expect(lead.getByTestId('home-verdicts')).toContainText('C-101 drag law check');
-	await lead.screenshot({ path: `${SHOTS}/32-home.png`, fullPage: true });
+	await lead.screenshot({ path: `${SHOTS}/screens-32-home.png`, fullPage: true });
 	await lead.context().close();
 
 	// the analyst who queued the runs was told by e-mail (the fake SMTP server stores it)
