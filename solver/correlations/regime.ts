@@ -21,6 +21,10 @@ export function regimeFromBand(o: { superficialGasVelocityMS: number }): RegimeE
 	const inBand = u >= REGIME_BAND_LOW_MS && u <= REGIME_BAND_HIGH_MS;
 	const value: 0 | 1 = u < mid ? 0 : 1;
 	const name = value === 0 ? 'homogeneous' : 'heterogeneous';
-	const suffix = inBand ? ', within the transition band 0.03–0.05 m/s' : '';
-	return { value, label: `${name} (common-practice band${suffix})`, inTransitionBand: inBand };
+	// Inside the band either regime is seen in practice (the sparger decides), so the label says so
+	// rather than stating the half-way split as a verdict.
+	const label = inBand
+		? `transitional, leaning ${name} (inside the common-practice transition band 0.03–0.05 m/s)`
+		: `${name} (common-practice band: transition at 0.03–0.05 m/s)`;
+	return { value, label, inTransitionBand: inBand };
 }

@@ -77,7 +77,8 @@ describe('bubble-column design correlations (PHYSICS §15)', () => {
 		// PHYSICS §8.6 band 0.03–0.05 m/s, common practice
 		expect(regimeFromBand({ superficialGasVelocityMS: 0.01 }).value).toBe(0);
 		expect(regimeFromBand({ superficialGasVelocityMS: 0.1 }).value).toBe(1);
-		expect(regimeFromBand({ superficialGasVelocityMS: 0.035 }).label).toMatch(/common-practice band.*transition/);
+		expect(regimeFromBand({ superficialGasVelocityMS: 0.035 }).label).toMatch(/^transitional, leaning homogeneous .*common-practice transition band/);
+		expect(regimeFromBand({ superficialGasVelocityMS: 0.1 }).label).toMatch(/^heterogeneous \(common-practice band/);
 	});
 });
 
