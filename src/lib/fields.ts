@@ -35,10 +35,27 @@ export function axisTitle(id: string): string {
 	return `${f.label} (${u === '1' ? '–' : u})`;
 }
 
-/** A field's values in the unit its chart axis states. */
-export function chartValues(id: string, values: ArrayLike<number>): ArrayLike<number> {
+/**
+ * Below this volume fraction a phase carries no mass worth drawing: its velocity there is a
+ * numerical by-product (e.g. the fall speed of stray drops in the freeboard), so charts leave a gap.
+ */
+export const ABSENT_PHASE_FRACTION = 1e-3;
+
+/**
+ * A field's values in the unit its chart axis states. With the holdup given, velocities of a
+ * phase that is (nearly) absent in a cell become gaps: gas velocity where α < 1e-3, liquid velocity
+ * where 1 − α < 1e-3, slip where either phase is absent.
+ */
+export function chartValues(id: string, values: ArrayLike<number>, holdup?: ArrayLike<number>): ArrayLike<number> {
 	const c = chartUnits[fieldLabel(id).unit];
-	return c ? Array.from(values, (v) => v * c.factor) : values;
+	const scaled = c ? Array.from(values, (v) => v * c.factor) : values;
+	if (!holdup || holdup.length !== values.length) return scaled;
+	const gasAbsent = (a: number) => a < ABSENT_PHASE_FRACTION;
+	const liquidAbsent = (a: number) => 1 - a < ABSENT_PHASE_FRACTION;
+	const absent =
+		id === 'gasVelocity' ? gasAbsent : id === 'liquidVelocity' ? liquidAbsent : id === 'slip' ? (a: number) => gasAbsent(a) || liquidAbsent(a) : null;
+	if (!absent) return scaled;
+	return Array.from(scaled, (v, i) => (absent(holdup[i]) ? Number.NaN : v));
 }
 
 /** The same for a value with an explicit SI unit (time histories). */
