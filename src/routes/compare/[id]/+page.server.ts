@@ -38,7 +38,8 @@ export const load: PageServerLoad = async (event) => {
 		column,
 		runs,
 		measurement: measurement ?? null,
-		measurementChoices: measurementChoices.map((m) => ({ id: m.id, name: m.name, kind: m.kind })),
+		// a dissolved-oxygen series is a time series, not a profile: nothing to rank runs against
+		measurementChoices: measurementChoices.filter((m) => m.kind !== 'dissolved-oxygen').map((m) => ({ id: m.id, name: m.name, kind: m.kind })),
 		ranking: ranking ? { measurement: { id: ranking.measurement.id, kind: ranking.measurement.kind, name: ranking.measurement.name }, ranked: ranking.ranked } : null,
 		canSignOff: hasRole(member.role, 'lead'),
 		savedMeasurementId: c.measurementId,
