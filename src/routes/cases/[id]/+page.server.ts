@@ -9,9 +9,9 @@ import { db } from '$lib/server/db/app';
 import { columns, runs as runsTable } from '$lib/server/db/schema';
 import * as cases from '$lib/server/cases';
 import * as signoffs from '$lib/server/signoffs';
+import { verdictActions } from '$lib/server/verdict-actions';
 import * as runs from '$lib/server/runs';
 import { caseSchema, validateCase } from '$solver/case';
-import { formValues } from '$lib/server/forms';
 
 async function loadCase(event: RequestEvent, teamId: string) {
 	const row = await cases.getCase({ teamId, id: event.params.id });
@@ -75,33 +75,5 @@ export const actions: Actions = {
 		if (!copy) error(404, 'Case not found.');
 		redirect(303, `/cases/${copy.id}`);
 	},
-	signOff: async (event) => {
-		const member = await requireMember(event, 'lead');
-		const row = await loadCase(event, member.team.id);
-		const values = formValues(await event.request.formData());
-		const parsed = signoffs.signOffForm.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { signOff: { values, errors: Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.') || 'verdict', i.message])) } });
-		}
-		const r = await signoffs.signOff({
-			teamId: member.team.id,
-			subjectType: 'case',
-			subjectId: row.id,
-			subjectName: row.name,
-			subjectUrl: `${event.url.origin}/cases/${row.id}`,
-			userId: member.user.id,
-			signerEmail: member.user.email,
-			...parsed.data
-		});
-		return { signedOff: true, mailedTo: r.mailedTo, mailError: r.mailError };
-	},
-	comment: async (event) => {
-		const member = await requireMember(event, 'viewer');
-		const row = await loadCase(event, member.team.id);
-		const values = formValues(await event.request.formData());
-		const parsed = signoffs.commentForm.safeParse(values);
-		if (!parsed.success) return fail(400, { comment: { values, errors: { body: parsed.error.issues[0].message } } });
-		await signoffs.addComment({ teamId: member.team.id, subjectType: 'case', subjectId: row.id, userId: member.user.id, body: parsed.data.body });
-		return { commented: true };
-	}
+	...verdictActions({ subjectType: 'case', path: '/cases', load: loadCase })
 };

@@ -7,7 +7,7 @@ import { db } from '$lib/server/db/app';
 import { columns, measurements } from '$lib/server/db/schema';
 import * as comparisons from '$lib/server/comparisons';
 import * as signoffs from '$lib/server/signoffs';
-import { formValues } from '$lib/server/forms';
+import { verdictActions } from '$lib/server/verdict-actions';
 import { isUuid } from '$lib/server/guard';
 import { listMeasurementsForColumn, rankRunsAgainstMeasurement, setComparisonMeasurement } from '$lib/server/measurements';
 
@@ -60,33 +60,5 @@ export const actions: Actions = {
 		await setComparisonMeasurement({ teamId: member.team.id, comparisonId: c.id, measurementId: m.id });
 		return { measurementSaved: true };
 	},
-	signOff: async (event) => {
-		const member = await requireMember(event, 'lead');
-		const c = await loadComparison(event, member.team.id);
-		const values = formValues(await event.request.formData());
-		const parsed = signoffs.signOffForm.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { signOff: { values, errors: Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.') || 'verdict', i.message])) } });
-		}
-		const r = await signoffs.signOff({
-			teamId: member.team.id,
-			subjectType: 'comparison',
-			subjectId: c.id,
-			subjectName: c.name,
-			subjectUrl: `${event.url.origin}/compare/${c.id}`,
-			userId: member.user.id,
-			signerEmail: member.user.email,
-			...parsed.data
-		});
-		return { signedOff: true, mailedTo: r.mailedTo, mailError: r.mailError };
-	},
-	comment: async (event) => {
-		const member = await requireMember(event, 'viewer');
-		const c = await loadComparison(event, member.team.id);
-		const values = formValues(await event.request.formData());
-		const parsed = signoffs.commentForm.safeParse(values);
-		if (!parsed.success) return fail(400, { comment: { values, errors: { body: parsed.error.issues[0].message } } });
-		await signoffs.addComment({ teamId: member.team.id, subjectType: 'comparison', subjectId: c.id, userId: member.user.id, body: parsed.data.body });
-		return { commented: true };
-	}
+	...verdictActions({ subjectType: 'comparison', path: '/compare', load: loadComparison })
 };
