@@ -52,9 +52,12 @@ test('the analyst signs in, creates a column and finds it in the table', async (
 	await page.getByRole('button', { name: 'Filter' }).click();
 	await expect(page.getByRole('row')).toHaveCount(2);
 	await page.getByRole('link', { name: 'Clear' }).click();
+	// the second click must wait for the first navigation: until then the link still points at the ascending order
 	await page.getByRole('link', { name: /Height/ }).click();
+	await expect(page.getByRole('columnheader', { name: /Height/ })).toHaveAttribute('aria-sort', 'ascending');
 	await page.getByRole('link', { name: /Height/ }).click();
 	await expect(page).toHaveURL(/sort=heightM&dir=desc/);
+	await expect(page.getByRole('columnheader', { name: /Height/ })).toHaveAttribute('aria-sort', 'descending');
 	// the fourth cell of each row is the height in metres; the demo's R-201 (9 m) is among them
 	const heights = (await page.locator('tbody tr td:nth-child(4)').allInnerTexts()).map(Number);
 	expect(heights).toContain(9);
