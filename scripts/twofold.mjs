@@ -138,16 +138,17 @@ function buildIsFresh() {
 	return fs.existsSync(marker) && fs.statSync(marker).mtimeMs > sourceTime;
 }
 
-/**
- * Builds when `build/` is missing or older than any source file. Returns true when it built.
- * A lock file keeps two processes of one checkout from building into `build/` at once.
- */
 export { authSecret };
 
-export async function buildIfNeeded() {
-	if (buildIsFresh()) return false;
-	const lock = path.join(LOCAL, 'build.lock');
+/**
+ * Runs `fn` holding the lock file `.local/<name>`: one holder per checkout at a time. A lock left
+ * by a process that no longer exists is taken over. `onWait(holderPid)` is called once when the
+ * lock is busy.
+ */
+async function withLockFile(name, { pollMs, onWait }, fn) {
+	const lock = path.join(LOCAL, name);
 	fs.mkdirSync(LOCAL, { recursive: true });
+	let told = false;
 	for (;;) {
 		try {
 			fs.writeFileSync(lock, String(process.pid), { flag: 'wx' });
@@ -159,19 +160,33 @@ export async function buildIfNeeded() {
 				fs.rmSync(lock, { force: true });
 				continue;
 			}
-			await new Promise((r) => setTimeout(r, 500));
+			if (!told) onWait?.(holder);
+			told = true;
+			await new Promise((r) => setTimeout(r, pollMs));
 		}
 	}
 	try {
+		return await fn();
+	} finally {
+		fs.rmSync(lock, { force: true });
+	}
+}
+
+/**
+ * Builds when `build/` is missing or older than any source file. Returns true when it built.
+ * The lock keeps two processes of one checkout from building into `build/` at once.
+ */
+export async function buildIfNeeded() {
+	if (buildIsFresh()) return false;
+	return withLockFile('build.lock', { pollMs: 500 }, async () => {
+		// another process may have built while this one waited
 		if (buildIsFresh()) return false;
 		const t0 = Date.now();
 		say('building the app (vite build)');
 		run(npxBin('vite'), ['build', '--logLevel', 'error']);
 		say(`built in ${seconds(t0)}`);
 		return true;
-	} finally {
-		fs.rmSync(lock, { force: true });
-	}
+	});
 }
 
 function pidAlive(pid) {
@@ -296,31 +311,11 @@ async function demoCredentials() {
  * Concurrent `npm test` runs in one checkout would drop each other's database and build:
  * a lock file makes them take turns.
  */
-async function withTestLock(fn) {
-	const lock = path.join(LOCAL, 'test-run.lock');
-	fs.mkdirSync(LOCAL, { recursive: true });
-	let told = false;
-	for (;;) {
-		try {
-			fs.writeFileSync(lock, String(process.pid), { flag: 'wx' });
-			break;
-		} catch (e) {
-			if (e.code !== 'EEXIST') throw e;
-			const holder = Number(fs.readFileSync(lock, 'utf8'));
-			if (!pidAlive(holder)) {
-				fs.rmSync(lock, { force: true });
-				continue;
-			}
-			if (!told) say(`another test run (pid ${holder}) is using this checkout: waiting for it`);
-			told = true;
-			await new Promise((r) => setTimeout(r, 1000));
-		}
-	}
-	try {
-		return await fn();
-	} finally {
-		fs.rmSync(lock, { force: true });
-	}
+function withTestLock(fn) {
+	return withLockFile('test-run.lock', {
+		pollMs: 1000,
+		onWait: (holder) => say(`another test run (pid ${holder}) is using this checkout: waiting for it`)
+	}, fn);
 }
 
 function ensureChromium() {

@@ -2,6 +2,7 @@
  * Pure helpers of the comparison screen: which closure choices differ between runs, design
  * numbers against the baseline, and the spread of a profile across runs as a band.
  */
+import { interpolateLinear } from './measurements/compare.js';
 
 export interface CompareRun {
 	id: string;
@@ -56,21 +57,12 @@ export function designTable(options: { runs: CompareRun[]; baselineId: string })
 	});
 }
 
-/** Linear interpolation of (x, y) at `at`, x ascending; clamped to the end values outside. */
+/**
+ * Linear interpolation of (x, y) at `at`, x ascending; clamped to the end values outside; NaN for
+ * an empty profile (a run without that field adds nothing to the band).
+ */
 export function interpolate(x: ArrayLike<number>, y: ArrayLike<number>, at: number): number {
-	const n = x.length;
-	if (n === 0) return Number.NaN;
-	if (at <= x[0]) return y[0];
-	if (at >= x[n - 1]) return y[n - 1];
-	let lo = 0;
-	let hi = n - 1;
-	while (hi - lo > 1) {
-		const mid = (lo + hi) >> 1;
-		if (x[mid] <= at) lo = mid;
-		else hi = mid;
-	}
-	const t = (at - x[lo]) / (x[hi] - x[lo]);
-	return y[lo] + t * (y[hi] - y[lo]);
+	return x.length === 0 ? Number.NaN : interpolateLinear({ x, y, at });
 }
 
 /**

@@ -1,18 +1,5 @@
-import { expect, test, type Page } from '@playwright/test';
-
-// the demo sign-ins of the seed (src/lib/server/seed.ts), local only
-const DEMO_PASSWORD = 'bubbles-demo-1';
-const ANALYST = 'analyst@marrowbay.test';
-const VIEWER = 'viewer@marrowbay.test';
-const SHOTS = 'artifacts/screenshots';
-
-async function signIn(page: Page, email: string) {
-	await page.goto('/signin');
-	await page.getByLabel('E-mail', { exact: true }).fill(email);
-	await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await expect(page.getByRole('navigation').getByText('Sign out')).toBeVisible();
-}
+import { expect, test } from '@playwright/test';
+import { ANALYST, SHOTS, VIEWER, signIn } from './demo';
 
 test('the analyst signs in, creates a column and finds it in the table', async ({ page }) => {
 	await page.goto('/columns');

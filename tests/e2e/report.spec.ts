@@ -4,6 +4,7 @@ import path from 'node:path';
 import { expect, test } from '@playwright/test';
 import pg from 'pg';
 import { encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode';
+import { LEAD, signIn } from './demo';
 
 /**
  * The printable report of a comparison, printed to PDF by Chromium and read back with
@@ -11,8 +12,6 @@ import { encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode
  * test data written straight into the test database.
  */
 
-const DEMO_PASSWORD = 'bubbles-demo-1';
-const LEAD = 'lead@marrowbay.test';
 const OUT = 'artifacts/report';
 
 function databaseUrl(): string {
@@ -113,11 +112,7 @@ test.beforeAll(async () => {
 });
 
 test('the comparison report prints to a three-page PDF with the expected text', async ({ page }) => {
-	await page.goto('/signin');
-	await page.getByLabel('E-mail', { exact: true }).fill(LEAD);
-	await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await expect(page.getByRole('navigation').getByText('Sign out')).toBeVisible();
+	await signIn(page, LEAD);
 
 	await page.goto(`/compare/${comparisonId}/report`);
 	await expect(page.getByRole('heading', { name: `Drag laws on ${tag}` })).toBeVisible();

@@ -1,0 +1,19 @@
+/**
+ * What the browser tests share: the demo sign-ins of the seed (src/lib/server/seed.ts, local only),
+ * where screenshots go, and signing in through the sign-in page.
+ */
+import { expect, type Page } from '@playwright/test';
+
+export const DEMO_PASSWORD = 'bubbles-demo-1';
+export const ANALYST = 'analyst@marrowbay.test';
+export const VIEWER = 'viewer@marrowbay.test';
+export const LEAD = 'lead@marrowbay.test';
+export const SHOTS = 'artifacts/screenshots';
+
+export async function signIn(page: Page, email: string) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail', { exact: true }).fill(email);
+	await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await expect(page.getByRole('navigation').getByText('Sign out')).toBeVisible();
+}
