@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { expect, test } from '@playwright/test';
 import pg from 'pg';
-import { encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode';
+import { encodeSnapshot as encodeStoredSnapshot } from '../../src/lib/server/runs/codec';
 import { LEAD, signIn } from './demo';
 
 /**

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { cases, columns, comparisons, measurements, runs, snapshots } from '../../src/lib/server/db/schema.js';
-import { encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode.js';
+import { encodeSnapshot as encodeStoredSnapshot } from '../../src/lib/server/runs/codec.js';
 import { defaultCase } from '../../solver/case.js';
 import { openTestDb } from '../helpers/db.js';
 import { testDatabaseUrl } from '../helpers/env.js';

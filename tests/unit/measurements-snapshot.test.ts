@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decodeStoredSnapshot, encodeStoredSnapshot } from '../../src/lib/measurements/snapshot-decode.js';
+import { decodeSnapshot as decodeStoredSnapshot, encodeSnapshot as encodeStoredSnapshot } from '../../src/lib/server/runs/codec.js';
 
 describe('stored snapshots', () => {
 	it('decode to the fields written, bit for bit', () => {

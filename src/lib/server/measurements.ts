@@ -19,7 +19,8 @@ import {
 } from '../measurements/compare.js';
 import type { MeasurementKind, OperatingPoint } from '../measurements/kinds.js';
 import type { CaseDocument } from '../../../solver/case.js';
-import { decodeStoredSnapshot, type DecodedSnapshot } from '../measurements/snapshot-decode.js';
+import { decodeSnapshot } from './runs/codec.js';
+import type { Snapshot } from '../../../solver/types.js';
 import { validateUploadMeta } from '../measurements/upload.js';
 
 export type Measurement = typeof measurements.$inferSelect;
@@ -213,14 +214,14 @@ export async function listRunsAtOperatingPoint(options: { teamId: string; column
 }
 
 /** The final snapshot of each given run that has one, decoded. */
-async function finalSnapshots(runIds: string[]): Promise<Map<string, DecodedSnapshot>> {
-	const out = new Map<string, DecodedSnapshot>();
+async function finalSnapshots(runIds: string[]): Promise<Map<string, Snapshot>> {
+	const out = new Map<string, Snapshot>();
 	if (runIds.length === 0) return out;
 	const rows = await db
 		.select({ runId: snapshots.runId, data: snapshots.data })
 		.from(snapshots)
 		.where(and(inArray(snapshots.runId, runIds), eq(snapshots.isFinal, true)));
-	for (const r of rows) out.set(r.runId, decodeStoredSnapshot(r.data));
+	for (const r of rows) out.set(r.runId, decodeSnapshot(r.data));
 	return out;
 }
 
@@ -244,15 +245,24 @@ export async function runsHeldAgainstMeasurement(options: { teamId: string; meas
 	const pair = profileFieldOfKind[m.kind];
 	if (!pair) return [];
 	const rows = await db
-		.select({ id: runs.id, caseName: cases.name, status: runs.status, queuedAt: runs.queuedAt, document: runs.caseDocument })
+		.select(runRowColumns)
 		.from(runs)
 		.leftJoin(cases, eq(cases.id, runs.caseId))
 		.where(and(eq(runs.teamId, options.teamId), eq(runs.columnId, m.columnId)))
 		.orderBy(desc(runs.queuedAt))
 		.limit(200);
 	const matching = rows.filter((r) => r.document.kind === pair.caseKind && operatingPointMatches({ run: operatingPointOfCase(r.document), measurement: m }).matches);
-	const finals = await finalSnapshots(matching.map((r) => r.id));
-	const out: RunHeldAgainst[] = matching.map((r) => {
+	return holdRunsAgainst(m, matching);
+}
+
+/** The run columns both views of runs against a measurement read. */
+const runRowColumns = { id: runs.id, caseName: cases.name, status: runs.status, queuedAt: runs.queuedAt, document: runs.caseDocument };
+type RunRow = { id: string; caseName: string | null; status: string; queuedAt: Date; document: CaseDocument };
+
+/** Each run's final profile on the measurement's x and its error measures, best RMSE first (no final profile last). */
+async function holdRunsAgainst(m: Measurement, rows: RunRow[]): Promise<RunHeldAgainst[]> {
+	const finals = await finalSnapshots(rows.map((r) => r.id));
+	const held: RunHeldAgainst[] = rows.map((r) => {
 		const snap = finals.get(r.id);
 		const profile: Series | null = snap ? profileForMeasurement({ kind: m.kind, caseDoc: r.document, snapshot: snap }) : null;
 		return {
@@ -264,7 +274,7 @@ export async function runsHeldAgainstMeasurement(options: { teamId: string; meas
 			measures: profile ? errorMeasures({ profile, measurement: m.data }) : null
 		};
 	});
-	return out.sort((a, b) => (a.measures?.rmse ?? Infinity) - (b.measures?.rmse ?? Infinity));
+	return held.sort((a, b) => (a.measures?.rmse ?? Infinity) - (b.measures?.rmse ?? Infinity));
 }
 
 export interface MeasurementAgainstRun {
@@ -326,25 +336,15 @@ export async function rankRunsAgainstMeasurement(options: {
 	if (!m || m.columnId !== options.columnId) return null;
 	if (options.runIds.length === 0) return { measurement: m, ranked: [] };
 	const rows = await db
-		.select({ id: runs.id, caseName: cases.name, status: runs.status, queuedAt: runs.queuedAt, document: runs.caseDocument })
+		.select(runRowColumns)
 		.from(runs)
 		.leftJoin(cases, eq(cases.id, runs.caseId))
 		.where(and(eq(runs.teamId, options.teamId), inArray(runs.id, options.runIds)));
-	const finals = await finalSnapshots(rows.map((r) => r.id));
-	const ranked: RankedRun[] = rows.map((r) => {
-		const snap = finals.get(r.id);
-		const profile = snap ? profileForMeasurement({ kind: m.kind, caseDoc: r.document, snapshot: snap }) : null;
-		return {
-			runId: r.id,
-			caseName: r.caseName ?? r.document.name,
-			status: r.status,
-			queuedAt: r.queuedAt,
-			profile: profile ? { x: Array.from(profile.x), y: Array.from(profile.y) } : null,
-			measures: profile ? errorMeasures({ profile, measurement: m.data }) : null,
-			operatingPointMatches: operatingPointMatches({ run: operatingPointOfCase(r.document), measurement: m }).matches
-		};
-	});
-	ranked.sort((a, b) => (a.measures?.rmse ?? Infinity) - (b.measures?.rmse ?? Infinity));
+	const documents = new Map(rows.map((r) => [r.id, r.document]));
+	const ranked: RankedRun[] = (await holdRunsAgainst(m, rows)).map((h) => ({
+		...h,
+		operatingPointMatches: operatingPointMatches({ run: operatingPointOfCase(documents.get(h.runId)!), measurement: m }).matches
+	}));
 	return { measurement: m, ranked };
 }
 

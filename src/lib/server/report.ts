@@ -9,7 +9,7 @@ import { db } from './db/app.js';
 import { columns, comparisons, runs, snapshots } from './db/schema.js';
 import { listComments, listSignOffs } from './signoffs.js';
 import { listMatchingMeasurements } from './measurements.js';
-import { decodeStoredSnapshot } from '../measurements/snapshot-decode.js';
+import { decodeSnapshot } from './runs/codec.js';
 import { errorMeasures, operatingPointOfCase, profileFieldOfKind, profileForMeasurement, type ErrorMeasures } from '../measurements/compare.js';
 import type { MeasurementKind, OperatingPoint } from '../measurements/kinds.js';
 import type { CaseDocument } from '../../../solver/case.js';
@@ -78,7 +78,7 @@ export async function loadComparisonReport(options: { teamId: string; comparison
 				.from(snapshots)
 				.where(and(inArray(snapshots.runId, runRows.map((r) => r.id)), eq(snapshots.isFinal, true)))
 		: [];
-	const finalByRun = new Map(finals.map((f) => [f.runId, decodeStoredSnapshot(f.data)]));
+	const finalByRun = new Map(finals.map((f) => [f.runId, decodeSnapshot(f.data)]));
 
 	// the comparison's order, baseline first
 	const order = [cmp.baselineRunId, ...cmp.runIds.filter((id) => id !== cmp.baselineRunId)];

@@ -28,7 +28,11 @@ interface StoredSnapshot {
 	values: Float64Array | Float32Array;
 }
 
-export function encodeSnapshot(snapshot: Snapshot, options: { precision?: SnapshotPrecision } = {}): Uint8Array {
+/** Accepts any array-likes (tests and fixtures pass plain arrays); the solver passes its typed arrays. */
+export function encodeSnapshot(
+	snapshot: { step: number; timeS: number; x: ArrayLike<number>; fields: Record<string, ArrayLike<number>> },
+	options: { precision?: SnapshotPrecision } = {}
+): Uint8Array {
 	const names = Object.keys(snapshot.fields);
 	const cells = snapshot.x.length;
 	const Typed = options.precision === 'float32' ? Float32Array : Float64Array;
