@@ -5,7 +5,11 @@
  */
 import { z } from 'zod';
 
-export const SCHEMA_VERSION = 1 as const;
+/**
+ * Version 2 added the bubble classes (`bubbles.classes` and the large-bubble fields). A version-1 document
+ * is upgraded on reading to the one-class model it was written for, so stored cases keep their results.
+ */
+export const SCHEMA_VERSION = 2 as const;
 
 export interface FieldMeta {
 	label: string;
@@ -49,6 +53,12 @@ export const wallFrictionModels = ['none', 'blasius'] as const;
 export const convectionSchemes = ['donor-cell', 'van-leer', 'minmod'] as const;
 export const gasVelocityBases = ['sparger', 'normal'] as const;
 export const bubbleSizings = ['fixed', 'akita-yoshida'] as const;
+/** one bubble size, or small and large bubbles above the regime transition */
+export const bubbleClassModels = ['single', 'small-large'] as const;
+export type BubbleClassModel = (typeof bubbleClassModels)[number];
+export const transitionCorrelations = ['reilly', 'fixed'] as const;
+export const largeBubbleSizings = ['krishna', 'fixed'] as const;
+export const largeBubbleDrags = ['krishna-swarm', 'spherical-cap'] as const;
 
 export const geometrySchema = z
 	.object({
@@ -102,8 +112,16 @@ export const spargingSchema = z
 
 export const bubblesSchema = z
 	.object({
+		/** new cases default to small + large bubbles; version-1 documents are upgraded to `single` */
+		classes: z.enum(bubbleClassModels).default('small-large'),
 		sizing: z.enum(bubbleSizings).default('fixed'),
-		diameterM: quantity({ label: 'Bubble diameter', unit: 'm', help: 'volume-equivalent (Sauter) diameter' }, 1e-5, 0.05, 0.004)
+		diameterM: quantity({ label: 'Bubble diameter', unit: 'm', help: 'volume-equivalent diameter of the (small) bubbles' }, 1e-5, 0.05, 0.004),
+		transition: z.enum(transitionCorrelations).default('reilly'),
+		transitionVelocityMS: quantity({ label: 'Transition gas velocity', unit: 'm/s', help: 'used when the transition is fixed' }, 0.001, 0.5, 0.04),
+		transitionHoldup: quantity({ label: 'Transition holdup', unit: '1', help: 'used when the transition is fixed' }, 0.005, 0.6, 0.15),
+		largeSizing: z.enum(largeBubbleSizings).default('krishna'),
+		largeDiameterM: quantity({ label: 'Large-bubble diameter', unit: 'm', help: 'used when the large-bubble size is fixed' }, 0.005, 0.2, 0.04),
+		largeDrag: z.enum(largeBubbleDrags).default('krishna-swarm')
 	})
 	.prefault({});
 
@@ -178,10 +196,23 @@ export interface CaseIssue {
 
 export type ValidationResult = { ok: true; value: CaseDocument } | { ok: false; issues: CaseIssue[] };
 
-/** Validate an unknown document against the case schema; never throws. */
-export function validateCase(doc: unknown): ValidationResult {
-	if (doc && typeof doc === 'object' && 'schemaVersion' in doc) {
-		const v = (doc as { schemaVersion: unknown }).schemaVersion;
+/**
+ * Upgrade an older case document to the current schema version (a copy; the input is not changed).
+ * Version 1 → 2: the gas was one bubble size, so `bubbles.classes` becomes `single`.
+ * Anything that is not a version-1 object is returned as it is, for the schema to judge.
+ */
+export function upgradeCaseDocument(doc: unknown): unknown {
+	if (!doc || typeof doc !== 'object' || Array.isArray(doc)) return doc;
+	const d = doc as Record<string, unknown>;
+	if (d.schemaVersion !== 1) return doc;
+	const bubbles = d.bubbles && typeof d.bubbles === 'object' && !Array.isArray(d.bubbles) ? (d.bubbles as Record<string, unknown>) : {};
+	return { ...d, schemaVersion: 2, bubbles: { ...bubbles, classes: 'single' } };
+}
+
+/** Validate an unknown document against the case schema, upgrading older versions first; never throws. */
+export function validateCase(input: unknown): ValidationResult {
+	if (input && typeof input === 'object' && 'schemaVersion' in input) {
+		const v = (input as { schemaVersion: unknown }).schemaVersion;
 		if (typeof v === 'number' && v > SCHEMA_VERSION) {
 			return {
 				ok: false,
@@ -189,6 +220,7 @@ export function validateCase(doc: unknown): ValidationResult {
 			};
 		}
 	}
+	const doc = upgradeCaseDocument(input);
 	const r = caseSchema.safeParse(doc);
 	if (r.success) return { ok: true, value: r.data };
 	return { ok: false, issues: r.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })) };

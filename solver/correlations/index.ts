@@ -5,3 +5,4 @@ export * from './mass-transfer.js';
 export * from './drift-flux.js';
 export * from './regime.js';
 export * from './terminal-velocity.js';
+export * from './churn.js';

@@ -9,6 +9,7 @@ import type { VirtualMassModel } from '../closures/virtual-mass.js';
 import type { WallFrictionModel } from '../closures/friction.js';
 import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
 import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2, idealGasDensity } from '../fluids.js';
+import { planClasses } from './classes.js';
 
 /** Bottom end (z = 0): prescribed inflow of both phases, or a closed wall. */
 export type BottomBoundary =
@@ -38,6 +39,21 @@ export type TopBoundary =
 	  }
 	| { kind: 'wall'; pressurePa: number };
 
+/** One bubble class of the gas: its own size, drag and share of the gas fed at the sparger. */
+export interface GasClassConfig {
+	/** stable id (snapshot field suffix): `small`, `large` */
+	id: string;
+	label: string;
+	diameterM: number;
+	/** single-bubble drag law; `spherical-cap` is C_D = 8/3, the Eo → ∞ limit of Tomiyama et al. (1998) */
+	drag: DragLaw | 'spherical-cap';
+	swarm: SwarmCorrection;
+	/** factor on the interfacial drag (a swarm rising faster than one bubble by a factor F has 1/F²) */
+	dragFactor: number;
+	/** share of the gas mass fed at the sparger, 0–1 (the shares sum to 1) */
+	inflowShare: number;
+}
+
 export interface HeightModelConfig {
 	cells: number;
 	heightM: number;
@@ -53,6 +69,10 @@ export interface HeightModelConfig {
 	/** signed axial component of gravity, m/s² (−9.81 for a column with z upward) */
 	gravityAxialMS2: number;
 	bubbleDiameterM: number;
+	/** numbers known before the run that the results carry (expected transition, large-bubble size), SI */
+	expected?: Record<string, { value: number; unit: string; label: string }>;
+	/** two or more bubble classes; omitted = one class of `bubbleDiameterM` with `drag` and `swarm` */
+	classes?: GasClassConfig[];
 	/** 'none' switches interfacial drag off (the faucet benchmark assumes no interfacial friction) */
 	drag: DragLaw | 'none';
 	swarm: SwarmCorrection;
@@ -96,7 +116,17 @@ export function configFromCase(c: CaseDocument): HeightModelConfig {
 	const ut = terminalVelocity({ law: c.closures.drag, diameterM: d, liquidDensityKgM3: l.densityKgM3, gasDensityKgM3: rhoSp, liquidViscosityPaS: l.viscosityPaS, surfaceTensionNM: l.surfaceTensionNM });
 	const level = c.geometry.clearLiquidLevelM;
 	const jl = c.sparging.superficialLiquidVelocityMS;
+	const plan = planClasses(c);
+	const expected: NonNullable<HeightModelConfig['expected']> = {};
+	if (plan.transition) {
+		expected.transitionVelocityMS = { value: plan.transition.velocityMS, unit: 'm/s', label: `Transition gas velocity (${plan.transitionSource})` };
+		expected.transitionHoldup = { value: plan.transition.holdup, unit: '1', label: `Transition holdup (${plan.transitionSource})` };
+		expected.largeGasShare = { value: plan.classes[1].inflowShare, unit: '1', label: 'Share of the gas fed as large bubbles' };
+		expected.largeAccelerationFactor = { value: plan.accelerationFactor, unit: '1', label: 'Large-bubble swarm acceleration factor (Krishna et al. 1999)' };
+		expected.largeWallFactor = { value: plan.wallFactor, unit: '1', label: 'Large-bubble wall factor (Collins 1967)' };
+	}
 	return {
+		...(plan.classes.length > 1 ? { classes: plan.classes, expected } : {}),
 		cells: c.numerics.cells,
 		heightM: c.geometry.heightM,
 		diameterM: c.geometry.diameterM,

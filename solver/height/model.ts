@@ -27,7 +27,7 @@
 import { DRAG_LAW_CODES, dragCdRe, eotvosNumber, terminalVelocity } from '../closures/drag.js';
 import { swarmExponent } from '../closures/swarm.js';
 import { blasiusFrictionCoefficient } from '../closures/friction.js';
-import type { HeightModelConfig } from './config.js';
+import type { GasClassConfig, HeightModelConfig } from './config.js';
 import { gasCompressibility } from './config.js';
 import type { RunStatus } from '../types.js';
 
@@ -38,6 +38,16 @@ const CFL_PRESENCE = 1e-4;
 /** A liquid donor below this fraction, facing a cell fuller than SWITCH_FULL, hands the donation to that cell. */
 const SWITCH_DONOR = 0.02;
 const SWITCH_FULL = 0.95;
+/** Drag-law code of the spherical-cap class (C_D = 8/3), next to the case's laws in DRAG_LAW_CODES. */
+const SPHERICAL_CAP_CODE = 6;
+
+/**
+ * Above the level the gas is continuous and its classes lose their identity: there each class is drawn to the
+ * old-time mean gas velocity with an implicit coupling of CLASS_LOCK·w·α_k ρ_g per step (w the separated-flow
+ * weight), so a class that is absent from the freeboard cannot run away under the freeboard's pressure gradient.
+ */
+const CLASS_LOCK = 10;
+
 /** Largest growth of the time step from one step to the next. */
 const DT_GROWTH = 1.2;
 /** A time step below this (s) with time left to run is reported as a collapse. */
@@ -61,8 +71,19 @@ export class HeightModel {
 	readonly liquidFraction: Float64Array;
 	readonly pressure: Float64Array;
 	readonly gasDensity: Float64Array;
+	/** gas velocity at the faces; with several classes their holdup-weighted mean */
 	readonly gasVelocity: Float64Array;
 	readonly liquidVelocity: Float64Array;
+	/** the bubble classes (one entry for the one-class model) */
+	readonly classes: readonly GasClassConfig[];
+	/** number of bubble classes */
+	readonly nc: number;
+	/** share of the cell's gas held by each class, `classShare[k][i]` (all 1 for one class) */
+	readonly classShare: Float64Array[];
+	/** face velocity of each class (class 0 is `gasVelocity` itself for one class) */
+	readonly classVelocity: Float64Array[];
+	/** gas mass flux of each class through each face of the last step, kg/(m² s) */
+	readonly classFlux: Float64Array[];
 	timeS = 0;
 	stepCount = 0;
 	dtS = 0;
@@ -87,11 +108,23 @@ export class HeightModel {
 	readonly gasFlux: Float64Array;
 	readonly liquidFlux: Float64Array;
 	private readonly lfOld: Float64Array;
+	private readonly classU0: Float64Array[];
+	private readonly classD: Float64Array[];
+	private readonly classW: Float64Array[];
+	private readonly classMass: Float64Array;
+	// per-face scratch of the class elimination
+	private readonly kA: Float64Array;
+	private readonly kB: Float64Array;
+	private readonly kR: Float64Array;
+	private readonly kAg: Float64Array;
 	// constants
 	private readonly psi: number;
 	private readonly eotvos: number;
 	private readonly lawIndex: number;
 	private readonly swarmN: number;
+	private readonly classEotvos: Float64Array;
+	private readonly classLaw: Int32Array;
+	private readonly classSwarmPow: Float64Array;
 	private readonly outsideGasDensity: number;
 	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
 	/** max |Δα_l|/Δt of the last step, 1/s */
@@ -129,6 +162,32 @@ export class HeightModel {
 		this.gasFlux = new Float64Array(n + 1);
 		this.liquidFlux = new Float64Array(n + 1);
 		this.lfOld = new Float64Array(n);
+		this.classes = cfg.classes && cfg.classes.length > 0
+			? cfg.classes
+			: [{ id: 'gas', label: 'Bubbles', diameterM: cfg.bubbleDiameterM, drag: cfg.drag === 'none' ? 'schiller-naumann' : cfg.drag, swarm: cfg.swarm, dragFactor: 1, inflowShare: 1 }];
+		const nc = this.classes.length;
+		this.nc = nc;
+		this.classShare = [];
+		this.classVelocity = [];
+		this.classFlux = [];
+		this.classU0 = [];
+		this.classD = [];
+		this.classW = [];
+		for (let k = 0; k < nc; k++) {
+			const share = new Float64Array(n);
+			share.fill(nc === 1 || k === 0 ? 1 : 0);
+			this.classShare.push(share);
+			this.classVelocity.push(nc === 1 ? this.gasVelocity : new Float64Array(n + 1));
+			this.classFlux.push(nc === 1 ? this.gasFlux : new Float64Array(n + 1));
+			this.classU0.push(nc === 1 ? this.ug0 : new Float64Array(n + 1));
+			this.classD.push(nc === 1 ? this.dg : new Float64Array(n + 1));
+			this.classW.push(nc === 1 ? this.wg : new Float64Array(n + 1));
+		}
+		this.classMass = new Float64Array(nc * n);
+		this.kA = new Float64Array(nc);
+		this.kB = new Float64Array(nc);
+		this.kR = new Float64Array(nc);
+		this.kAg = new Float64Array(nc);
 		this.psi = gasCompressibility(cfg);
 		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
@@ -140,6 +199,21 @@ export class HeightModel {
 			reT = (cfg.liquidDensityKgM3 * ut * cfg.bubbleDiameterM) / cfg.liquidViscosityPaS;
 		}
 		this.swarmN = swarmExponent({ model: cfg.swarm, terminalReynolds: reT });
+		this.classEotvos = new Float64Array(nc);
+		this.classLaw = new Int32Array(nc);
+		this.classSwarmPow = new Float64Array(nc);
+		for (let k = 0; k < nc; k++) {
+			const c = this.classes[k];
+			const gAbs = Math.abs(cfg.gravityAxialMS2);
+			this.classEotvos[k] = eotvosNumber({ diameterM: c.diameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: gAbs });
+			this.classLaw[k] = c.drag === 'spherical-cap' ? SPHERICAL_CAP_CODE : DRAG_LAW_CODES[c.drag];
+			let re = 0;
+			if (c.swarm !== 'none' && c.drag !== 'spherical-cap') {
+				const ut = terminalVelocity({ law: c.drag, diameterM: c.diameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, liquidViscosityPaS: cfg.liquidViscosityPaS, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: gAbs });
+				re = (cfg.liquidDensityKgM3 * ut * c.diameterM) / cfg.liquidViscosityPaS;
+			}
+			this.classSwarmPow[k] = -2 * (swarmExponent({ model: c.swarm, terminalReynolds: re }) - 1);
+		}
 		this.initialise();
 	}
 
@@ -152,6 +226,7 @@ export class HeightModel {
 		for (let j = 0; j <= n; j++) {
 			this.gasVelocity[j] = cfg.initial.gasVelocityMS;
 			this.liquidVelocity[j] = cfg.initial.liquidVelocityMS;
+			for (let k = 0; k < this.nc; k++) this.classVelocity[k][j] = cfg.initial.gasVelocityMS;
 		}
 		this.applyBoundaryVelocities();
 		this.hydrostaticPressure();
@@ -187,18 +262,21 @@ export class HeightModel {
 
 	private applyBoundaryVelocities(): void {
 		const { cfg, n } = this;
-		const ug = this.gasVelocity;
 		const ul = this.liquidVelocity;
 		const b = cfg.bottom;
+		for (let k = 0; k < this.nc; k++) {
+			const ug = this.classVelocity[k];
+			if (b.kind === 'wall') ug[0] = 0;
+			else ug[0] = b.gasVelocityMS ?? ug[1];
+			if (cfg.top.kind === 'wall') ug[n] = 0;
+		}
 		if (b.kind === 'wall') {
-			ug[0] = 0;
 			ul[0] = 0;
 		} else {
-			ug[0] = b.gasVelocityMS ?? ug[1];
 			ul[0] = b.liquidVelocityMS ?? b.liquidVolumeFluxMS / Math.max(this.liquidFraction[0], 0.01);
 		}
+		if (this.nc > 1) this.mixGasVelocity();
 		if (cfg.top.kind === 'wall') {
-			ug[n] = 0;
 			ul[n] = 0;
 		} else if (cfg.top.liquid === 'closed') {
 			ul[n] = 0;
@@ -207,19 +285,45 @@ export class HeightModel {
 		}
 	}
 
+	/** Holdup of class k in cell i. */
+	classHoldup(k: number, i: number): number {
+		return (1 - this.liquidFraction[i]) * this.classShare[k][i];
+	}
+
+	/** `gasVelocity` as the holdup-weighted mean of the class velocities at each face (several classes). */
+	mixGasVelocity(): void {
+		const { n, nc } = this;
+		const lf = this.liquidFraction;
+		for (let j = 0; j <= n; j++) {
+			const lo = j > 0 ? j - 1 : 0;
+			const hi = j < n ? j : n - 1;
+			let sw = 0;
+			let su = 0;
+			for (let k = 0; k < nc; k++) {
+				const y = this.classShare[k];
+				const a = (1 - lf[lo]) * y[lo] + (1 - lf[hi]) * y[hi] + 1e-30;
+				sw += a;
+				su += a * this.classVelocity[k][j];
+			}
+			this.gasVelocity[j] = su / sw;
+		}
+	}
+
 	/** Time step from the material Courant number, counting only phases present in a cell (positivity form). */
 	private chooseTimeStep(): number {
 		const { cfg, n, dz } = this;
-		const ug = this.gasVelocity;
 		const ul = this.liquidVelocity;
 		const lf = this.liquidFraction;
 		let speed = 0;
 		for (let i = 0; i < n; i++) {
-			if (1 - lf[i] > CFL_PRESENCE) {
-				const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
-				if (s > speed) {
-					speed = s;
-					this.limitingCell = i;
+			for (let k = 0; k < this.nc; k++) {
+				const ug = this.classVelocity[k];
+				if ((1 - lf[i]) * this.classShare[k][i] > CFL_PRESENCE) {
+					const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
+					if (s > speed) {
+						speed = s;
+						this.limitingCell = i;
+					}
 				}
 			}
 			if (lf[i] > CFL_PRESENCE) {
@@ -293,16 +397,20 @@ export class HeightModel {
 		const courantScale = dt / dz;
 
 		// 1. face momentum: new velocity = u0 − D·(pressure difference)/h
+		const nc = this.nc;
 		for (let j = 0; j <= n; j++) {
 			solved[j] = 0;
-			ug0[j] = 0;
-			dg[j] = 0;
 			ul0[j] = 0;
 			dl[j] = 0;
+			for (let k = 0; k < nc; k++) {
+				this.classU0[k][j] = 0;
+				this.classD[k][j] = 0;
+			}
 		}
 		const top = cfg.top;
 		const jMax = top.kind === 'pressure' ? n : n - 1;
-		for (let j = 1; j <= jMax; j++) {
+		if (nc > 1) this.classFaceMomentum(dt, jMax);
+		else for (let j = 1; j <= jMax; j++) {
 			const below = j - 1;
 			const isTop = j === n;
 			const af = isTop ? 1 - lf[below] : 1 - 0.5 * (lf[below] + lf[j]);
@@ -397,10 +505,16 @@ export class HeightModel {
 
 		// 2. donor weights from the old-time velocity direction (PHYSICS §18: a predicted direction can block the level face)
 		for (let j = 1; j < n; j++) {
-			const cg = ug[j] * courantScale;
 			const cl = ul[j] * courantScale;
-			if (ug[j] >= 0) wg[j] = this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1];
-			else wg[j] = this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j];
+			for (let k = 0; k < nc; k++) {
+				// each class is carried by its own velocity; its weight is the donor's gas times the class's share of it
+				const uk = this.classVelocity[k];
+				const w = this.classW[k];
+				const y = this.classShare[k];
+				const cg = uk[j] * courantScale;
+				if (uk[j] >= 0) w[j] = nc === 1 ? this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1] : this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1] * y[j - 1];
+				else w[j] = nc === 1 ? this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j] : this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j] * y[j];
+			}
 			// liquid whose upwind cell is (nearly) empty while the other side is (nearly) full takes the other side
 			// as donor: at a level crossing a face the bubbles' velocity points up and the drops' velocity down, and
 			// with neither side donating, the filling cell must push its last gas out at u = j/α (unbounded) or
@@ -413,18 +527,23 @@ export class HeightModel {
 		}
 		const bottom = cfg.bottom;
 		if (bottom.kind === 'inflow') {
-			// prescribed fluxes: weight 1, "velocity" = the flux itself
-			wg[0] = 1;
-			ug0[0] = bottom.gasMassFluxKgM2S;
+			// prescribed fluxes: weight 1, "velocity" = the flux itself, divided among the classes
+			for (let k = 0; k < nc; k++) {
+				this.classW[k][0] = 1;
+				this.classU0[k][0] = nc === 1 ? bottom.gasMassFluxKgM2S : bottom.gasMassFluxKgM2S * this.classes[k].inflowShare;
+			}
 			wl[0] = 1;
 			ul0[0] = bottom.liquidVolumeFluxMS;
 		} else {
-			wg[0] = 0;
+			for (let k = 0; k < nc; k++) this.classW[k][0] = 0;
 			wl[0] = 0;
 		}
 		hf[0] = dz;
 		if (top.kind === 'pressure') {
-			wg[n] = ug[n] >= 0 ? (1 - lf[n - 1]) * rg[n - 1] : this.outsideGasDensity;
+			for (let k = 0; k < nc; k++) {
+				const y = nc === 1 ? 1 : this.classShare[k][n - 1];
+				this.classW[k][n] = this.classVelocity[k][n] >= 0 ? (1 - lf[n - 1]) * rg[n - 1] * y : this.outsideGasDensity * y;
+			}
 			// a (nearly) full top cell donates whatever the old direction: a liquid-full column must keep an outlet
 			if (top.liquid === 'open') wl[n] = ul[n] >= 0 || lf[n - 1] > SWITCH_FULL ? lf[n - 1] : 0;
 			else if (top.liquid === 'feed') {
@@ -433,7 +552,7 @@ export class HeightModel {
 				dl[n] = 0;
 			} else wl[n] = 0;
 		} else {
-			wg[n] = 0;
+			for (let k = 0; k < nc; k++) this.classW[k][n] = 0;
 			wl[n] = 0;
 			hf[n] = dz;
 		}
@@ -447,10 +566,35 @@ export class HeightModel {
 			const inv = rg[i] > 0 ? 1 / rg[i] : 0;
 			const jt = i + 1;
 			const jb = i;
-			const eTop = (wg[jt] * dg[jt] * inv + wl[jt] * dl[jt]) / hf[jt];
-			const eBot = (wg[jb] * dg[jb] * inv + wl[jb] * dl[jb]) / hf[jb];
-			const fTop = wg[jt] * (ug0[jt] - (dg[jt] * dpOld[jt]) / hf[jt]) * inv + wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
-			const fBot = wg[jb] * (ug0[jb] - (dg[jb] * dpOld[jb]) / hf[jb]) * inv + wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
+			let eTop: number;
+			let eBot: number;
+			let fTop: number;
+			let fBot: number;
+			if (nc === 1) {
+				eTop = (wg[jt] * dg[jt] * inv + wl[jt] * dl[jt]) / hf[jt];
+				eBot = (wg[jb] * dg[jb] * inv + wl[jb] * dl[jb]) / hf[jb];
+				fTop = wg[jt] * (ug0[jt] - (dg[jt] * dpOld[jt]) / hf[jt]) * inv + wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
+				fBot = wg[jb] * (ug0[jb] - (dg[jb] * dpOld[jb]) / hf[jb]) * inv + wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
+			} else {
+				// the gas volume flux of every class through each face
+				let et = wl[jt] * dl[jt];
+				let eb = wl[jb] * dl[jb];
+				let ft = wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
+				let fb = wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
+				for (let k = 0; k < nc; k++) {
+					const w = this.classW[k];
+					const d0 = this.classD[k];
+					const u0 = this.classU0[k];
+					et += w[jt] * d0[jt] * inv;
+					eb += w[jb] * d0[jb] * inv;
+					ft += w[jt] * (u0[jt] - (d0[jt] * dpOld[jt]) / hf[jt]) * inv;
+					fb += w[jb] * (u0[jb] - (d0[jb] * dpOld[jb]) / hf[jb]) * inv;
+				}
+				eTop = et / hf[jt];
+				eBot = eb / hf[jb];
+				fTop = ft;
+				fBot = fb;
+			}
 			const ci = rg[i] > 0 ? ((1 - lf[i]) * psi * dz) / (rg[i] * dt) : 0;
 			di[i] = ci + eTop + eBot;
 			upr[i] = i < n - 1 ? -eTop : 0;
@@ -484,25 +628,43 @@ export class HeightModel {
 		for (let j = 1; j <= n; j++) {
 			if (!solved[j]) {
 				gf[j] = 0;
+				for (let k = 1; k < nc; k++) this.classFlux[k][j] = 0;
+				if (nc > 1) this.classFlux[0][j] = 0;
 				lfx[j] = wl[j] * ul0[j];
 				continue;
 			}
 			const above = j < n ? x[j] : 0;
 			const grad = (dpOld[j] + above - x[j - 1]) / hf[j];
-			ug[j] = ug0[j] - dg[j] * grad;
 			ul[j] = ul0[j] - dl[j] * grad;
-			gf[j] = wg[j] * ug[j];
 			lfx[j] = wl[j] * ul[j];
+			if (nc === 1) {
+				ug[j] = ug0[j] - dg[j] * grad;
+				gf[j] = wg[j] * ug[j];
+			} else {
+				let sum = 0;
+				for (let k = 0; k < nc; k++) {
+					const uk = this.classVelocity[k];
+					uk[j] = this.classU0[k][j] - this.classD[k][j] * grad;
+					const fk = this.classW[k][j] * uk[j];
+					this.classFlux[k][j] = fk;
+					sum += fk;
+				}
+				gf[j] = sum;
+			}
 		}
 		if (top.kind === 'pressure' && top.liquid === 'feed') {
 			lfx[n] = -(top.liquidFeedMS ?? 0);
 		}
 		gf[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S : 0;
 		lfx[0] = bottom.kind === 'inflow' ? bottom.liquidVolumeFluxMS : 0;
+		const r = dt / dz;
+		if (nc > 1) {
+			for (let k = 0; k < nc; k++) this.classFlux[k][0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S * this.classes[k].inflowShare : 0;
+			this.updateClassShares(r);
+		}
 
 		// 5. liquid fraction, conservative; over-drained cells repaired from the neighbour that took the liquid
 		const old = this.lfOld;
-		const r = dt / dz;
 		for (let i = 0; i < n; i++) {
 			old[i] = lf[i];
 			lf[i] = lf[i] - r * (lfx[i + 1] - lfx[i]);
@@ -519,6 +681,7 @@ export class HeightModel {
 		}
 		this.lastMaxHoldupRate = maxRate / dt;
 		this.applyBoundaryVelocities();
+		// (applyBoundaryVelocities also refreshes the mean gas velocity of several classes)
 		this.diag.gasInKgM2S = gf[0] + (gf[n] < 0 ? -gf[n] : 0);
 		this.diag.gasOutKgM2S = gf[n] > 0 ? gf[n] : 0;
 		this.diag.liquidInMS = lfx[0] - (lfx[n] < 0 ? lfx[n] : 0);
@@ -530,6 +693,171 @@ export class HeightModel {
 		if (bad) return this.fail(bad);
 		if (this.timeS >= cfg.endTimeS) this.status = 'finished';
 		return this.status;
+	}
+
+	/**
+	 * Face momentum of the liquid and N bubble classes sharing the pressure. Each class couples to the liquid
+	 * only (drag, virtual mass, interfacial pressure), so the (N+1)×(N+1) block is an arrow: each class equation
+	 * gives u_k in terms of u_l and the pressure difference, and the liquid equation then closes in u_l, O(N).
+	 * The terms are those of the one-class loop in `advance`, per class, with the class holdup α_k = α y_k.
+	 */
+	private classFaceMomentum(dt: number, jMax: number): void {
+		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kA, kB, kR, kAg } = this;
+		const lf = this.liquidFraction;
+		const p = this.pressure;
+		const rg = this.gasDensity;
+		const ul = this.liquidVelocity;
+		const rl = cfg.liquidDensityKgM3;
+		const mul = cfg.liquidViscosityPaS;
+		const mug = cfg.gasViscosityPaS;
+		const g = cfg.gravityAxialMS2;
+		const cp = cfg.interfacialPressureCoefficient;
+		const vmModel = cfg.virtualMass;
+		const vmConst = cfg.virtualMassCoefficient;
+		const blend = cfg.dropletBlend;
+		const dd = blend ? blend.dropDiameterM : 1;
+		const frictionOn = cfg.wallFriction !== 'none';
+		const courantScale = dt / dz;
+		const top = cfg.top;
+		const dragOn = this.lawIndex >= 0;
+		for (let j = 1; j <= jMax; j++) {
+			const below = j - 1;
+			const isTop = j === n;
+			const af = isTop ? 1 - lf[below] : 1 - 0.5 * (lf[below] + lf[j]);
+			const lff = 1 - af;
+			const ag = af > PRESENT_EPS ? af : PRESENT_EPS;
+			const alq = lff > PRESENT_EPS ? lff : PRESENT_EPS;
+			const rgf = isTop ? rg[below] : 0.5 * (rg[below] + rg[j]);
+			const ulj = ul[j];
+			const dnL = ulj >= 0 ? below : isTop ? below : j;
+			let up = ulj >= 0 ? ul[j - 1] : j < n ? ul[j + 1] : ulj;
+			const shareL = lf[dnL] / alq;
+			let nu = (ulj < 0 ? -ulj : ulj) * courantScale * (shareL < 1 ? shareL : 1);
+			const uls = ulj - (nu < 1 ? nu : 1) * (ulj - up);
+			let w = 0;
+			if (dragOn && blend && af > blend.fromHoldup) {
+				const xb = af >= blend.toHoldup ? 1 : (af - blend.fromHoldup) / (blend.toHoldup - blend.fromHoldup);
+				w = xb * xb * (3 - 2 * xb);
+			}
+			let cvm = 0;
+			if (vmModel === 'constant') cvm = vmConst;
+			else if (vmModel === 'zuber') {
+				const ac = af < 0.9 ? af : 0.9;
+				cvm = (0.5 * (1 + 2 * ac)) / (1 - ac);
+			}
+			const lam = frictionOn ? blasiusFrictionCoefficient(lff, rl, mul, ulj, cfg.diameterM) : 0;
+			let sumV = 0;
+			let sumVug = 0;
+			let slExtra = 0;
+			for (let k = 0; k < nc; k++) {
+				const y = this.classShare[k];
+				const uk = this.classVelocity[k];
+				const ab = (1 - lf[below]) * y[below];
+				const aa = isTop ? ab : (1 - lf[j]) * y[j];
+				const akf = isTop ? ab : 0.5 * (ab + aa);
+				const agk = akf > PRESENT_EPS ? akf : PRESENT_EPS;
+				const ugj = uk[j];
+				const ur = ugj - ulj;
+				const aur = ur < 0 ? -ur : ur;
+				const dnG = ugj >= 0 ? below : isTop ? below : j;
+				up = ugj >= 0 ? uk[j - 1] : j < n ? uk[j + 1] : ugj;
+				const shareG = ((1 - lf[dnG]) * y[dnG]) / agk;
+				nu = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
+				const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
+				let kk = 0;
+				if (dragOn) {
+					const c = this.classes[k];
+					const d = c.diameterM;
+					const law = this.classLaw[k];
+					const re = (rl * aur * d) / mul;
+					const cdRe = law === SPHERICAL_CAP_CODE ? (8 / 3) * re : dragCdRe(law, re, this.classEotvos[k], af);
+					let kb = (0.75 * agk * mul * cdRe * c.dragFactor) / (d * d);
+					const sp = this.classSwarmPow[k];
+					if (sp !== 0) kb *= Math.exp(sp * Math.log(alq > 1e-6 ? alq : 1e-6));
+					kk = kb;
+					if (w > 0) {
+						// above the level the gas is continuous: the droplet drag, shared among the classes by their holdup
+						const red = (rgf * aur * dd) / mug;
+						const cdRed = red <= 1000 ? 24 * (1 + 0.15 * (red > 0 ? Math.exp(0.687 * Math.log(red)) : 0)) : 0.44 * red;
+						const kd = ((0.75 * alq * mug * cdRed) / (dd * dd)) * (agk / ag);
+						kk = (1 - w) * kb + w * kd;
+					}
+				}
+				const v = cvm * ((1 - w) * agk * rl + w * alq * rgf * (agk / ag));
+				// the class's share of the gradient of the whole gas fraction: the gradient of a trace class's own
+				// fraction, against the fast slip of drops in the freeboard, would be a spurious force per unit mass
+				const dadz = isTop ? 0 : ((lf[below] - lf[j]) / dz) * (agk / ag);
+				const dpi = cp * rl * ur * ur;
+				const kip = cp * rl * ur * dadz;
+				const implicitIp = kk + kip > 0;
+				const mg = agk * rgf;
+				const cdt = (implicitIp ? kk + kip : kk) * dt;
+				const sg = agk * rgf * g - (implicitIp ? 0 : dpi * dadz);
+				if (!implicitIp) slExtra += dpi * dadz;
+				const b = v + cdt;
+				const lock = w > 0 ? CLASS_LOCK * w * mg : 0;
+				kA[k] = mg + b + lock;
+				kB[k] = b;
+				kR[k] = (mg + v) * ugs - v * uls + dt * sg + lock * this.gasVelocity[j];
+				kAg[k] = agk;
+				sumV += v;
+				sumVug += v * ugs;
+			}
+			const ml = alq * rl;
+			const rlRhs = (ml + sumV) * uls - sumVug + dt * (alq * rl * g + slExtra);
+			hf[j] = isTop ? 0.5 * dz : dz;
+			dpOld[j] = isTop ? top.pressurePa - p[below] : p[j] - p[below];
+			solved[j] = 1;
+			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
+				for (let k = 0; k < nc; k++) {
+					this.classU0[k][j] = kR[k] / kA[k];
+					this.classD[k][j] = (dt * kAg[k]) / kA[k];
+				}
+				ul0[j] = 0;
+				dl[j] = 0;
+				continue;
+			}
+			let sMat = ml + lam * dt;
+			let num = rlRhs;
+			let dnum = alq;
+			for (let k = 0; k < nc; k++) {
+				const q = kB[k] / kA[k];
+				sMat += q * (kA[k] - kB[k]);
+				num += q * kR[k];
+				dnum += q * kAg[k];
+			}
+			const u0 = num / sMat;
+			const d0 = (dt * dnum) / sMat;
+			ul0[j] = u0;
+			dl[j] = d0;
+			for (let k = 0; k < nc; k++) {
+				this.classU0[k][j] = (kR[k] + kB[k] * u0) / kA[k];
+				this.classD[k][j] = (dt * kAg[k] + kB[k] * d0) / kA[k];
+			}
+		}
+	}
+
+	/**
+	 * Class shares after the step: each class's gas mass is carried by its own flux (conservative, donor-cell);
+	 * the cell's gas is then divided among the classes in proportion to those masses.
+	 */
+	private updateClassShares(dtOverDz: number): void {
+		const { n, nc } = this;
+		const lf = this.liquidFraction;
+		const rg = this.gasDensity;
+		const m = this.classMass;
+		for (let i = 0; i < n; i++) {
+			let sum = 0;
+			const gas = (1 - lf[i]) * rg[i];
+			for (let k = 0; k < nc; k++) {
+				const f = this.classFlux[k];
+				let v = gas * this.classShare[k][i] - dtOverDz * (f[i + 1] - f[i]);
+				if (v < 0) v = 0;
+				m[k * n + i] = v;
+				sum += v;
+			}
+			if (sum > 1e-300) for (let k = 0; k < nc; k++) this.classShare[k][i] = m[k * n + i] / sum;
+		}
 	}
 
 	/**
@@ -604,6 +932,9 @@ export class HeightModel {
 			return `pressure ${pi.toPrecision(6)} Pa is not positive in ${where(i)}`;
 		}
 		for (let j = 0; j <= n; j++) {
+			for (let k = 1; k < this.nc; k++) {
+				if (!Number.isFinite(this.classVelocity[k][j])) return `velocity of the ${this.classes[k].label.toLowerCase()} is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
+			}
 			if (!Number.isFinite(this.gasVelocity[j]) || !Number.isFinite(this.liquidVelocity[j])) {
 				return `${Number.isFinite(this.gasVelocity[j]) ? 'liquid' : 'gas'} velocity is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
 			}

@@ -26,6 +26,11 @@ import { SOLVER_VERSION } from '../version.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
+/** `small` → `Small`: the suffix of a class's snapshot fields (`holdupSmall`, `gasVelocitySmall`). */
+export function classFieldSuffix(id: string): string {
+	return id.charAt(0).toUpperCase() + id.slice(1);
+}
+
 /** The status record of an ordinary step, shared so a running simulation allocates nothing per step. */
 const RUNNING: StepStatus = Object.freeze({ status: 'running' });
 
@@ -220,6 +225,39 @@ class HeightSimulationImpl implements HeightSimulation {
 		return v * m.dz;
 	}
 
+	/** Per-class holdup, slip, interfacial area and kLa below the level (several classes). */
+	private classSummary(level: number) {
+		const m = this.model;
+		const cfg = this.cfg;
+		const classes = m.classes.map((c) => ({ suffix: classFieldSuffix(c.id), label: c.label, diameterM: c.diameterM, holdup: 0, slipMS: 0 }));
+		let areaSum = 0;
+		let gasSum = 0;
+		let invSum = 0;
+		for (let k = 0; k < m.nc; k++) {
+			let vol = 0;
+			let slip = 0;
+			const uk = m.classVelocity[k];
+			for (let i = 0; i < m.n; i++) {
+				const z0 = i * m.dz;
+				if (z0 >= level) break;
+				const h = Math.min(m.dz, level - z0);
+				const a = m.classHoldup(k, i) * h;
+				vol += a;
+				slip += a * (0.5 * (uk[i] + uk[i + 1]) - 0.5 * (m.liquidVelocity[i] + m.liquidVelocity[i + 1]));
+			}
+			classes[k].holdup = level > 0 ? vol / level : 0;
+			classes[k].slipMS = vol > 0 ? slip / vol : 0;
+			gasSum += classes[k].holdup;
+			invSum += classes[k].holdup / classes[k].diameterM;
+			areaSum += (6 * classes[k].holdup) / classes[k].diameterM;
+		}
+		let kLaPerS = 0;
+		for (const k of classes) {
+			if (k.slipMS > 0) kLaPerS += higbieMassTransferCoefficient({ diffusivityM2S: cfg.soluteDiffusivityM2S, diameterM: k.diameterM, slipMS: k.slipMS }) * ((6 * k.holdup) / k.diameterM);
+		}
+		return { classes, areaPerM: areaSum, kLaPerS, sauterM: invSum > 0 ? gasSum / invSum : classes[0].diameterM };
+	}
+
 	private liquidCentre(): number {
 		const m = this.model;
 		let s = 0;
@@ -238,18 +276,33 @@ class HeightSimulationImpl implements HeightSimulation {
 		const gasVelocity = new Float64Array(n);
 		const liquidVelocity = new Float64Array(n);
 		const slip = new Float64Array(n);
+		const sauterDiameter = new Float64Array(n);
 		for (let i = 0; i < n; i++) {
 			holdup[i] = 1 - m.liquidFraction[i];
 			gasVelocity[i] = 0.5 * (m.gasVelocity[i] + m.gasVelocity[i + 1]);
 			liquidVelocity[i] = 0.5 * (m.liquidVelocity[i] + m.liquidVelocity[i + 1]);
 			slip[i] = gasVelocity[i] - liquidVelocity[i];
+			// d32 = Σ α_k / Σ (α_k/d_k), from the class shares (defined even where there is no gas)
+			let inv = 0;
+			for (let k = 0; k < m.nc; k++) inv += m.classShare[k][i] / m.classes[k].diameterM;
+			sauterDiameter[i] = inv > 0 ? 1 / inv : m.classes[0].diameterM;
 		}
-		return {
-			step: m.stepCount,
-			timeS: m.timeS,
-			x: Float64Array.from(m.zCentre),
-			fields: { holdup, gasVelocity, liquidVelocity, pressure: Float64Array.from(m.pressure), gasDensity: Float64Array.from(m.gasDensity), slip }
-		};
+		const fields: Record<string, Float64Array> = { holdup, gasVelocity, liquidVelocity, pressure: Float64Array.from(m.pressure), gasDensity: Float64Array.from(m.gasDensity), slip, sauterDiameter };
+		if (m.nc > 1) {
+			for (let k = 0; k < m.nc; k++) {
+				const id = classFieldSuffix(m.classes[k].id);
+				const a = new Float64Array(n);
+				const u = new Float64Array(n);
+				const uk = m.classVelocity[k];
+				for (let i = 0; i < n; i++) {
+					a[i] = m.classHoldup(k, i);
+					u[i] = 0.5 * (uk[i] + uk[i + 1]);
+				}
+				fields[`holdup${id}`] = a;
+				fields[`gasVelocity${id}`] = u;
+			}
+		}
+		return { step: m.stepCount, timeS: m.timeS, x: Float64Array.from(m.zCentre), fields };
 	}
 
 	checkpoint(): Checkpoint {
@@ -284,9 +337,22 @@ class HeightSimulationImpl implements HeightSimulation {
 				windowLiquidFraction: Float64Array.from(this.winLiquid),
 				windowGasVelocity: Float64Array.from(this.winGasVelocity),
 				windowLiquidVelocity: Float64Array.from(this.winLiquidVelocity),
-				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate, this.res.momentumImbalance]
+				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate, this.res.momentumImbalance],
+				...this.classCheckpoint()
 			}
 		};
+	}
+
+	/** Class shares and velocities (several classes only: a one-class checkpoint is unchanged). */
+	private classCheckpoint(): Record<string, Float64Array | number> {
+		const m = this.model;
+		if (m.nc === 1) return {};
+		const out: Record<string, Float64Array | number> = { classes: m.nc };
+		for (let k = 0; k < m.nc; k++) {
+			out[`classShare${k}`] = Float64Array.from(m.classShare[k]);
+			out[`classVelocity${k}`] = Float64Array.from(m.classVelocity[k]);
+		}
+		return out;
 	}
 
 	restore(cp: Checkpoint): void {
@@ -309,6 +375,13 @@ class HeightSimulationImpl implements HeightSimulation {
 		arr('windowLiquidFraction', this.winLiquid);
 		arr('windowGasVelocity', this.winGasVelocity);
 		arr('windowLiquidVelocity', this.winLiquidVelocity);
+		if (m.nc > 1) {
+			if (d.classes !== m.nc) throw new Error(`Checkpoint has ${String(d.classes ?? 1)} bubble classes, this case has ${m.nc}`);
+			for (let k = 0; k < m.nc; k++) {
+				arr(`classShare${k}`, m.classShare[k]);
+				arr(`classVelocity${k}`, m.classVelocity[k]);
+			}
+		} else if (d.classes !== undefined && d.classes !== 1) throw new Error(`Checkpoint has ${String(d.classes)} bubble classes, this case has one`);
 		const num = (name: string) => {
 			const v = d[name];
 			if (typeof v !== 'number') throw new Error(`Checkpoint field ${name} is missing`);
@@ -360,8 +433,13 @@ class HeightSimulationImpl implements HeightSimulation {
 		const fin = cfg.bottom.kind === 'inflow' ? cfg.bottom.gasMassFluxKgM2S : 0;
 		const meanSlip = gasVol > 0 ? slipSum / gasVol : 0;
 		const d = cfg.bubbleDiameterM;
-		const area = (6 * eps) / d;
-		const kl = meanSlip > 0 ? higbieMassTransferCoefficient({ diffusivityM2S: cfg.soluteDiffusivityM2S, diameterM: d, slipMS: meanSlip }) : 0;
+		let area = (6 * eps) / d;
+		let kLa = (meanSlip > 0 ? higbieMassTransferCoefficient({ diffusivityM2S: cfg.soluteDiffusivityM2S, diameterM: d, slipMS: meanSlip }) : 0) * area;
+		const perClass = m.nc > 1 ? this.classSummary(level) : null;
+		if (perClass) {
+			area = perClass.areaPerM;
+			kLa = perClass.kLaPerS;
+		}
 		const jg = fin / (cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3);
 		const regime = regimeFromBand({ superficialGasVelocityMS: jg });
 		const liq = this.liquidInventoryM();
@@ -375,8 +453,9 @@ class HeightSimulationImpl implements HeightSimulation {
 			spargerPressurePa: num(p0, 'Pa', 'Pressure at the sparger'),
 			gasResidenceTimeS: num(fin > 0 ? gasMass / fin : 0, 's', 'Gas residence time'),
 			meanSlipMS: num(meanSlip, 'm/s', 'Mean slip velocity'),
-			interfacialAreaPerM: num(area, '1/m', 'Interfacial area (6ε/d)'),
-			kLaPerS: num(kl * area, '1/s', `kLa of ${c.fluids.solute} (Higbie penetration, t_c = d/u_r)`),
+			interfacialAreaPerM: num(area, '1/m', perClass ? 'Interfacial area (Σ 6ε_k/d_k)' : 'Interfacial area (6ε/d)'),
+			kLaPerS: num(kLa, '1/s', `kLa of ${c.fluids.solute} (Higbie penetration, t_c = d/u_r${perClass ? ', per class' : ''})`),
+			sauterDiameterM: num(perClass ? perClass.sauterM : d, 'm', 'Sauter mean diameter of the aerated region'),
 			regime: num(regime.value, '1', `Regime: ${regime.label}`),
 			liquidMassErrorRel: num(liquidErr, '1', 'Relative liquid inventory error'),
 			akitaYoshidaHoldup: num(akitaYoshidaHoldup(column), '1', 'Akita–Yoshida (1973) holdup'),
@@ -387,6 +466,14 @@ class HeightSimulationImpl implements HeightSimulation {
 				'Drift-flux holdup (Zuber–Findlay, C₀ = 1.2)'
 			)
 		};
+		if (perClass) {
+			for (const k of perClass.classes) {
+				design[`holdup${k.suffix}`] = num(k.holdup, '1', `Holdup of the ${k.label.toLowerCase()}`);
+				design[`slip${k.suffix}MS`] = num(k.slipMS, 'm/s', `Mean slip of the ${k.label.toLowerCase()}`);
+				design[`diameter${k.suffix}M`] = num(k.diameterM, 'm', `Diameter of the ${k.label.toLowerCase()}`);
+			}
+		}
+		Object.assign(design, cfg.expected ?? {});
 		const r: Results = { kind: 'height-profile', status: m.status, step: m.stepCount, timeS: m.timeS, design, profiles: this.snapshot() };
 		if (m.message) r.message = m.message;
 		return r;
