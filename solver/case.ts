@@ -115,7 +115,7 @@ export const bubblesSchema = z
 		/** new cases default to small + large bubbles; version-1 documents are upgraded to `single` */
 		classes: z.enum(bubbleClassModels).default('small-large'),
 		sizing: z.enum(bubbleSizings).default('fixed'),
-		diameterM: quantity({ label: 'Bubble diameter', unit: 'm', help: 'volume-equivalent diameter of the (small) bubbles' }, 1e-5, 0.05, 0.004),
+		diameterM: quantity({ label: 'Bubble diameter', unit: 'm', help: 'volume-equivalent diameter of the (small) bubbles' }, 1e-5, 0.05, 0.005),
 		transition: z.enum(transitionCorrelations).default('reilly'),
 		transitionVelocityMS: quantity({ label: 'Transition gas velocity', unit: 'm/s', help: 'used when the transition is fixed' }, 0.001, 0.5, 0.04),
 		transitionHoldup: quantity({ label: 'Transition holdup', unit: '1', help: 'used when the transition is fixed' }, 0.005, 0.6, 0.15),
@@ -198,7 +198,8 @@ export type ValidationResult = { ok: true; value: CaseDocument } | { ok: false; 
 
 /**
  * Upgrade an older case document to the current schema version (a copy; the input is not changed).
- * Version 1 → 2: the gas was one bubble size, so `bubbles.classes` becomes `single`.
+ * Version 1 → 2: the gas was one bubble size, so `bubbles.classes` becomes `single`, and a missing
+ * `bubbles.diameterM` keeps version 1's default of 4 mm.
  * Anything that is not a version-1 object is returned as it is, for the schema to judge.
  */
 export function upgradeCaseDocument(doc: unknown): unknown {
@@ -206,7 +207,8 @@ export function upgradeCaseDocument(doc: unknown): unknown {
 	const d = doc as Record<string, unknown>;
 	if (d.schemaVersion !== 1) return doc;
 	const bubbles = d.bubbles && typeof d.bubbles === 'object' && !Array.isArray(d.bubbles) ? (d.bubbles as Record<string, unknown>) : {};
-	return { ...d, schemaVersion: 2, bubbles: { ...bubbles, classes: 'single' } };
+	// version 1's default diameter was 4 mm (version 2's is 5 mm, for the small bubbles)
+	return { ...d, schemaVersion: 2, bubbles: { diameterM: 0.004, ...bubbles, classes: 'single' } };
 }
 
 /** Validate an unknown document against the case schema, upgrading older versions first; never throws. */
@@ -230,5 +232,16 @@ export function validateCase(input: unknown): ValidationResult {
 export function defaultCase(kind: CaseKind = 'height-profile'): CaseDocument {
 	const c = caseSchema.parse({ schemaVersion: SCHEMA_VERSION, kind });
 	if (kind === 'cross-section') c.numerics.cells = 60;
+	return c;
+}
+
+/**
+ * The one-class reference case: the default case with the gas as one bubble size of 4 mm, as every case was
+ * before the bubble classes (schema version 1). The verification tests of the one-class model use it.
+ */
+export function oneClassCase(kind: CaseKind = 'height-profile'): CaseDocument {
+	const c = defaultCase(kind);
+	c.bubbles.classes = 'single';
+	c.bubbles.diameterM = 0.004;
 	return c;
 }

@@ -65,7 +65,10 @@ for (const d of Object.values(results.design)) {
 if (csvPath) {
 	const p = results.profiles;
 	const names = Object.keys(p.fields);
-	const units: Record<string, string> = { holdup: '1', gasVelocity: 'm/s', liquidVelocity: 'm/s', pressure: 'Pa', gasDensity: 'kg/m3', slip: 'm/s' };
+	const units: Record<string, string> = { holdup: '1', gasVelocity: 'm/s', liquidVelocity: 'm/s', pressure: 'Pa', gasDensity: 'kg/m3', slip: 'm/s', sauterDiameter: 'm' };
+	// bubble classes: holdupSmall, gasVelocityLarge, ...
+	for (const n of names) if (/^holdup[A-Z]/.test(n)) units[n] = '1';
+	for (const n of names) if (/^gasVelocity[A-Z]/.test(n)) units[n] = 'm/s';
 	// cross-section fields: viscosity and the radial forces on the gas per unit mixture volume
 	Object.assign(units, { effectiveViscosity: 'Pa.s', liftForce: 'N/m3', wallLubricationForce: 'N/m3', dispersionForce: 'N/m3', dragForce: 'N/m3' });
 	const axis = results.kind === 'cross-section' ? 'r_m' : 'z_m';

@@ -5,7 +5,8 @@ import type { CaseDocument } from './case.js';
 import { eotvosNumber, terminalVelocity } from './closures/drag.js';
 import { hyperbolicityLimitHoldup, virtualMassCoefficient } from './closures/virtual-mass.js';
 import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
-import { regimeFromBand } from './correlations/regime.js';
+import { regimeFromBand, regimeFromTransition } from './correlations/regime.js';
+import { planClasses } from './height/classes.js';
 import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
 
 export interface DerivedNumbers {
@@ -37,6 +38,16 @@ export interface DerivedNumbers {
 	wellPosedUpToHoldup: number;
 	/** plain-language cautions about the closure choice for this case (empty when none apply) */
 	warnings: string[];
+	/** small + large bubbles (height profile only): the expected transition and the large bubbles it implies */
+	classes: {
+		transitionVelocityMS: number;
+		transitionHoldup: number;
+		transitionSource: string;
+		largeDiameterM: number;
+		largeGasShare: number;
+		/** large-bubble swarm velocity, 0.71 √(g d) SF AF, m/s */
+		largeSwarmVelocityMS: number;
+	} | null;
 }
 
 export function spargerPressurePaAtRest(c: CaseDocument): number {
@@ -75,7 +86,21 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	const ut = terminalVelocity({ law: c.closures.drag, ...props });
 	const dRho = l.densityKgM3 - rhoSp;
 	const massFlux = gasMassFlux(c);
-	const regime = regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
+	const plan = c.kind === 'height-profile' && c.bubbles.classes === 'small-large' ? planClasses(c) : null;
+	const classes =
+		plan && plan.transition
+			? {
+					transitionVelocityMS: plan.transition.velocityMS,
+					transitionHoldup: plan.transition.holdup,
+					transitionSource: plan.transitionSource,
+					largeDiameterM: plan.classes[1].diameterM,
+					largeGasShare: plan.classes[1].inflowShare,
+					largeSwarmVelocityMS: 0.71 * Math.sqrt(g * plan.classes[1].diameterM) * plan.wallFactor * plan.accelerationFactor
+				}
+			: null;
+	const regime = classes
+		? regimeFromTransition({ superficialGasVelocityMS: massFlux / rhoSp, transitionVelocityMS: classes.transitionVelocityMS, source: classes.transitionSource })
+		: regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
 	const dz = c.geometry.heightM / c.numerics.cells;
 	const terminalReynolds = (l.densityKgM3 * ut * d) / l.viscosityPaS;
 	const warnings: string[] = [];
@@ -113,6 +138,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 						interfacialPressureCoefficient: c.closures.interfacialPressureCoefficient
 					})
 				: 0,
-		warnings
+		warnings,
+		classes
 	};
 }

@@ -3,6 +3,10 @@
  * what it models and its published source. The case editor and the comparison view show these.
  */
 import {
+	bubbleClassModels,
+	largeBubbleDrags,
+	largeBubbleSizings,
+	transitionCorrelations,
 	bubbleInducedTurbulenceModels,
 	bubbleSizings,
 	convectionSchemes,
@@ -87,6 +91,34 @@ export const bubbleSizingCatalog: Catalog<typeof bubbleSizings> = {
 	'akita-yoshida': { label: 'Akita–Yoshida', models: 'Sauter diameter from Bo, Ga and Fr of the column', source: 'K. Akita, F. Yoshida (1974), Ind. Eng. Chem. Process Des. Dev. 13, 84' }
 };
 
+export const bubbleClassCatalog: Catalog<typeof bubbleClassModels> = {
+	single: { label: 'One bubble size', models: 'all gas as one dispersed field of one diameter (bubbly, homogeneous flow)', source: '—' },
+	'small-large': {
+		label: 'Small + large bubbles',
+		models: 'above the regime transition the small bubbles carry the transition gas rate and the excess rises as large bubbles, each class with its own continuity, momentum and drag',
+		source: 'R. Krishna, J. Ellenberger (1996), AIChE J. 42, 2627'
+	}
+};
+
+export const transitionCatalog: Catalog<typeof transitionCorrelations> = {
+	reilly: { label: 'Reilly et al.', models: 'transition holdup from gas density and surface tension; transition velocity ε_trans(1 − ε_trans) U_sb', source: 'I. G. Reilly, D. S. Scott, T. J. W. de Bruijn, D. MacIntyre (1994), Can. J. Chem. Eng. 72, 3' },
+	fixed: { label: 'Entered', models: 'the transition velocity and holdup entered in the case (e.g. measured on the pilot column)', source: '—' }
+};
+
+export const largeBubbleSizingCatalog: Catalog<typeof largeBubbleSizings> = {
+	krishna: { label: 'Krishna–Ellenberger', models: 'large-bubble diameter 0.069 (U_G − U_trans)^0.376 m', source: 'R. Krishna, J. Ellenberger (1996), AIChE J. 42, 2627' },
+	fixed: { label: 'Fixed', models: 'the large-bubble diameter entered in the case', source: '—' }
+};
+
+export const largeBubbleDragCatalog: Catalog<typeof largeBubbleDrags> = {
+	'krishna-swarm': {
+		label: 'Cap swarm (Krishna)',
+		models: 'swarm velocity 0.71 √(g d) · wall factor (Collins 1967) · acceleration factor 2.73 + 4.505 (U_G − U_trans)',
+		source: 'R. Krishna, M. I. Urseanu, J. M. van Baten, J. Ellenberger (1999), Chem. Eng. Sci. 54, 171'
+	},
+	'spherical-cap': { label: 'Single spherical cap', models: 'C_D = 8/3, the rise velocity of one cap bubble (no swarm acceleration)', source: 'R. M. Davies, G. I. Taylor (1950), Proc. R. Soc. Lond. A 200, 375' }
+};
+
 /** The whole catalogue keyed by the case field it describes (`closures.drag`, …). */
 export const closureCatalog = {
 	'closures.drag': dragCatalog,
@@ -98,5 +130,9 @@ export const closureCatalog = {
 	'closures.bubbleInducedTurbulence': bubbleInducedTurbulenceCatalog,
 	'closures.wallFriction': wallFrictionCatalog,
 	'numerics.scheme': convectionSchemeCatalog,
-	'bubbles.sizing': bubbleSizingCatalog
+	'bubbles.sizing': bubbleSizingCatalog,
+	'bubbles.classes': bubbleClassCatalog,
+	'bubbles.transition': transitionCatalog,
+	'bubbles.largeSizing': largeBubbleSizingCatalog,
+	'bubbles.largeDrag': largeBubbleDragCatalog
 } as const;

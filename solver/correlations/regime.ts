@@ -28,3 +28,10 @@ export function regimeFromBand(o: { superficialGasVelocityMS: number }): RegimeE
 		: `${name} (common-practice band: transition at 0.03–0.05 m/s)`;
 	return { value, label, inTransitionBand: inBand };
 }
+
+/** Regime from a transition velocity of a named correlation (the two-class model's own transition). */
+export function regimeFromTransition(o: { superficialGasVelocityMS: number; transitionVelocityMS: number; source: string }): RegimeEstimate {
+	const value: 0 | 1 = o.superficialGasVelocityMS <= o.transitionVelocityMS ? 0 : 1;
+	const name = value === 0 ? 'homogeneous' : 'heterogeneous';
+	return { value, label: `${name} (transition at ${o.transitionVelocityMS.toFixed(3)} m/s, ${o.source})`, inTransitionBand: false };
+}

@@ -21,7 +21,8 @@ import { configFromCase, type HeightModelConfig } from './config.js';
 import { akitaYoshidaHoldup, hughmarkHoldup } from '../correlations/holdup.js';
 import { zuberFindlayHoldup } from '../correlations/drift-flux.js';
 import { higbieMassTransferCoefficient } from '../correlations/mass-transfer.js';
-import { regimeFromBand } from '../correlations/regime.js';
+import { regimeFromBand, regimeFromTransition } from '../correlations/regime.js';
+import { hikitaHoldup } from '../correlations/churn.js';
 import { SOLVER_VERSION } from '../version.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
@@ -441,7 +442,10 @@ class HeightSimulationImpl implements HeightSimulation {
 			kLa = perClass.kLaPerS;
 		}
 		const jg = fin / (cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3);
-		const regime = regimeFromBand({ superficialGasVelocityMS: jg });
+		const ut = cfg.expected?.transitionVelocityMS;
+		const regime = ut
+			? regimeFromTransition({ superficialGasVelocityMS: jg, transitionVelocityMS: ut.value, source: ut.label.replace(/^[^(]*\((.*)\)$/, '$1') })
+			: regimeFromBand({ superficialGasVelocityMS: jg });
 		const liq = this.liquidInventoryM();
 		const liquidErr = this.liquid0 > 0 ? Math.abs(liq - this.liquid0 - this.liquidNetInM) / this.liquid0 : 0;
 		const column = { diameterM: cfg.diameterM, superficialGasVelocityMS: jg, liquidDensityKgM3: rl, liquidViscosityPaS: cfg.liquidViscosityPaS, surfaceTensionNM: cfg.surfaceTensionNM };
@@ -460,6 +464,11 @@ class HeightSimulationImpl implements HeightSimulation {
 			liquidMassErrorRel: num(liquidErr, '1', 'Relative liquid inventory error'),
 			akitaYoshidaHoldup: num(akitaYoshidaHoldup(column), '1', 'Akita–Yoshida (1973) holdup'),
 			hughmarkHoldup: num(hughmarkHoldup(column), '1', 'Hughmark (1967) holdup'),
+			hikitaHoldup: num(
+				hikitaHoldup({ ...column, gasDensityKgM3: cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3, gasViscosityPaS: cfg.gasViscosityPaS }),
+				'1',
+				'Hikita et al. (1980) holdup'
+			),
 			driftFluxHoldup: num(
 				zuberFindlayHoldup({ superficialGasVelocityMS: jg, superficialLiquidVelocityMS: c.sparging.superficialLiquidVelocityMS, liquidDensityKgM3: rl, gasDensityKgM3: cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3, surfaceTensionNM: cfg.surfaceTensionNM }),
 				'1',

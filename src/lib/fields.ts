@@ -9,6 +9,11 @@ export const fieldInfo: Record<string, { label: string; unit: string }> = {
 	slip: { label: 'slip velocity', unit: 'm/s' },
 	pressure: { label: 'pressure', unit: 'Pa' },
 	gasDensity: { label: 'gas density', unit: 'kg/m³' },
+	sauterDiameter: { label: 'Sauter mean diameter', unit: 'm' },
+	holdupSmall: { label: 'small-bubble holdup', unit: '1' },
+	holdupLarge: { label: 'large-bubble holdup', unit: '1' },
+	gasVelocitySmall: { label: 'small-bubble velocity', unit: 'm/s' },
+	gasVelocityLarge: { label: 'large-bubble velocity', unit: 'm/s' },
 	effectiveViscosity: { label: 'effective viscosity', unit: 'Pa·s' },
 	liftForce: { label: 'lift force', unit: 'N/m³' },
 	wallLubricationForce: { label: 'wall-lubrication force', unit: 'N/m³' },
@@ -53,7 +58,7 @@ export function chartValues(id: string, values: ArrayLike<number>, holdup?: Arra
 	const gasAbsent = (a: number) => a < ABSENT_PHASE_FRACTION;
 	const liquidAbsent = (a: number) => 1 - a < ABSENT_PHASE_FRACTION;
 	const absent =
-		id === 'gasVelocity' ? gasAbsent : id === 'liquidVelocity' ? liquidAbsent : id === 'slip' ? (a: number) => gasAbsent(a) || liquidAbsent(a) : null;
+		id === 'gasVelocity' || id === 'gasVelocitySmall' || id === 'gasVelocityLarge' ? gasAbsent : id === 'liquidVelocity' ? liquidAbsent : id === 'slip' ? (a: number) => gasAbsent(a) || liquidAbsent(a) : null;
 	if (!absent) return scaled;
 	return Array.from(scaled, (v, i) => (absent(holdup[i]) ? Number.NaN : v));
 }
@@ -72,7 +77,7 @@ export function positionTitle(kind: string): string {
 export function profileOrder(kind: string): string[] {
 	return kind === 'cross-section'
 		? ['holdup', 'liquidVelocity', 'gasVelocity', 'effectiveViscosity', 'liftForce', 'wallLubricationForce', 'dispersionForce', 'dragForce']
-		: ['holdup', 'gasVelocity', 'liquidVelocity', 'slip', 'pressure', 'gasDensity'];
+		: ['holdup', 'holdupSmall', 'holdupLarge', 'sauterDiameter', 'gasVelocity', 'gasVelocitySmall', 'gasVelocityLarge', 'liquidVelocity', 'slip', 'pressure', 'gasDensity'];
 }
 
 /** Reading order of design numbers (the stored jsonb summary does not keep key order). */
@@ -85,6 +90,18 @@ export const designOrder = [
 	'meanSlipMS',
 	'interfacialAreaPerM',
 	'kLaPerS',
+	'sauterDiameterM',
+	'holdupSmall',
+	'holdupLarge',
+	'diameterSmallM',
+	'diameterLargeM',
+	'slipSmallMS',
+	'slipLargeMS',
+	'transitionVelocityMS',
+	'transitionHoldup',
+	'largeGasShare',
+	'largeAccelerationFactor',
+	'largeWallFactor',
 	'regime',
 	'sectionHoldup',
 	'centrelineLiquidVelocityMS',

@@ -16,7 +16,7 @@ describe('the solver command line', () => {
 		expect(out).toMatch(/status: converged/);
 		expect(out).toMatch(/Overall gas holdup of the aerated region\s+0\.1\d+/);
 		const lines = readFileSync(csvPath, 'utf8').trim().split('\n');
-		expect(lines[0]).toBe('z_m,holdup_1,gasVelocity_m_per_s,liquidVelocity_m_per_s,pressure_Pa,gasDensity_kg_per_m3,slip_m_per_s');
+		expect(lines[0]).toBe('z_m,holdup_1,gasVelocity_m_per_s,liquidVelocity_m_per_s,pressure_Pa,gasDensity_kg_per_m3,slip_m_per_s,sauterDiameter_m');
 		expect(lines.length).toBe(41);
 		// first cell centre at Δz/2 = 0.0125 m
 		expect(Number(lines[1].split(',')[0])).toBeCloseTo(0.0125, 12);

@@ -3,7 +3,7 @@
  * conservation, and the steady holdup against the one-dimensional drift-flux balance.
  */
 import { describe, expect, it } from 'vitest';
-import { defaultCase, type CaseDocument } from '../../solver/case.js';
+import { oneClassCase as defaultCase, type CaseDocument } from '../../solver/case.js';
 import { createHeightSimulation, residualNames, type HeightSimulation } from '../../solver/height/simulation.js';
 import { terminalVelocity } from '../../solver/closures/drag.js';
 import { idealGasDensity, GRAVITY_MS2 } from '../../solver/fluids.js';

@@ -106,12 +106,12 @@ describe('fluid presets and derived numbers', () => {
 	});
 
 	it('derives the air–water groups of the default case', () => {
-		// PHYSICS §14 [D]: Mo = 2.58e-11; 4 mm Schiller–Naumann bubble in Newton range: U = √(4/3 g d Δρ/(0.44 ρ_l))
+		// PHYSICS §14 [D]: Mo = 2.58e-11; the default 5 mm (small-class) Schiller–Naumann bubble in Newton range: U = √(4/3 g d Δρ/(0.44 ρ_l))
 		// (Schiller & Naumann constant 0.44 from memory)
 		const d = derivedNumbers(defaultCase());
 		expect(rel(d.morton, 2.58e-11)).toBeLessThan(0.01);
 		const rhoSp = d.spargerGasDensityKgM3;
-		expect(rel(d.terminalVelocityMS, Math.sqrt(((4 / 3) * 9.81 * 0.004 * (998.2 - rhoSp)) / (0.44 * 998.2)))).toBeLessThan(1e-9);
+		expect(rel(d.terminalVelocityMS, Math.sqrt(((4 / 3) * 9.81 * 0.005 * (998.2 - rhoSp)) / (0.44 * 998.2)))).toBeLessThan(1e-9);
 		expect(d.cellSizeM).toBeCloseTo(0.02, 12);
 		// sparger pressure at rest: 101325 + 998.2·9.81·1.5 Pa
 		expect(rel(rhoSp, idealGasDensity({ pressurePa: 101325 + 998.2 * 9.81 * 1.5, molarMassKgMol: 0.02896, temperatureK: 293.15 }))).toBeLessThan(1e-12);

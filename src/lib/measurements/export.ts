@@ -7,6 +7,7 @@
  */
 import Papa from 'papaparse';
 import { findUnit, fromSi, kindSpecs, type MeasurementKind } from './kinds.js';
+import { fieldInfo } from '../fields.js';
 
 export interface CsvColumn {
 	label: string;
@@ -35,14 +36,7 @@ export function columnsToCsv(opts: { columns: CsvColumn[] }): string {
 }
 
 /** Units of the fields a snapshot may hold, for the header; unknown names are written with `?`. */
-export const fieldUnits: Record<string, string> = {
-	holdup: '1',
-	gasVelocity: 'm/s',
-	liquidVelocity: 'm/s',
-	slip: 'm/s',
-	pressure: 'Pa',
-	gasDensity: 'kg/m³'
-};
+export const fieldUnits: Record<string, string> = Object.fromEntries(Object.entries(fieldInfo).map(([id, f]) => [id, f.unit]));
 
 /**
  * A snapshot's profiles: position first, then every field in name order.

@@ -11,7 +11,7 @@ export const sections: { id: SectionId; title: string }[] = [
 	{ id: 'geometry', title: 'Geometry' },
 	{ id: 'fluids', title: 'Fluids' },
 	{ id: 'sparging', title: 'Sparging' },
-	{ id: 'bubbles', title: 'Bubbles' },
+	{ id: 'bubbles', title: 'Bubble classes' },
 	{ id: 'closures', title: 'Closures' },
 	{ id: 'numerics', title: 'Numerics' }
 ];
@@ -47,7 +47,11 @@ function unwrap(s: ZodLike): ZodLike {
 /** Enum field labels where the schema has none (the enums carry no metadata). */
 const enumLabels: Record<string, { label: string; help?: string }> = {
 	'sparging.gasVelocityBasis': { label: 'Gas velocity given at', help: 'sparger conditions, or normal conditions (0 °C, 1 atm)' },
-	'bubbles.sizing': { label: 'Bubble size from', help: 'a fixed diameter, or the Akita–Yoshida (1974) correlation' },
+	'bubbles.classes': { label: 'Gas as', help: 'one bubble size, or small and large bubbles above the regime transition' },
+	'bubbles.sizing': { label: 'Bubble size from', help: 'a fixed diameter, or the Akita–Yoshida (1974) correlation (the small bubbles, with two classes)' },
+	'bubbles.transition': { label: 'Regime transition from', help: 'where the gas starts to rise as large bubbles' },
+	'bubbles.largeSizing': { label: 'Large-bubble size from' },
+	'bubbles.largeDrag': { label: 'Large-bubble drag' },
 	'closures.drag': { label: 'Drag' },
 	'closures.swarm': { label: 'Swarm correction' },
 	'closures.virtualMass': { label: 'Virtual mass' },
@@ -111,7 +115,15 @@ const onlyFor: Record<string, CaseKind> = {
 	'closures.wallLubrication': 'cross-section',
 	'closures.turbulentDispersion': 'cross-section',
 	'closures.turbulentDispersionCoefficient': 'cross-section',
-	'closures.bubbleInducedTurbulence': 'cross-section'
+	'closures.bubbleInducedTurbulence': 'cross-section',
+	// the cross-section model has one bubble size
+	'bubbles.classes': 'height-profile',
+	'bubbles.transition': 'height-profile',
+	'bubbles.transitionVelocityMS': 'height-profile',
+	'bubbles.transitionHoldup': 'height-profile',
+	'bubbles.largeSizing': 'height-profile',
+	'bubbles.largeDiameterM': 'height-profile',
+	'bubbles.largeDrag': 'height-profile'
 };
 
 /** Fields that only matter for one choice of another field. */
@@ -119,7 +131,13 @@ const dependsOn: Record<string, (c: CaseDocument) => boolean> = {
 	'closures.virtualMassCoefficient': (c) => c.closures.virtualMass === 'constant',
 	'closures.liftCoefficient': (c) => c.closures.lift === 'constant',
 	'closures.turbulentDispersionCoefficient': (c) => c.closures.turbulentDispersion !== 'none',
-	'bubbles.diameterM': (c) => c.bubbles.sizing === 'fixed'
+	'bubbles.diameterM': (c) => c.bubbles.sizing === 'fixed',
+	'bubbles.transition': (c) => c.bubbles.classes === 'small-large',
+	'bubbles.transitionVelocityMS': (c) => c.bubbles.classes === 'small-large' && c.bubbles.transition === 'fixed',
+	'bubbles.transitionHoldup': (c) => c.bubbles.classes === 'small-large' && c.bubbles.transition === 'fixed',
+	'bubbles.largeSizing': (c) => c.bubbles.classes === 'small-large',
+	'bubbles.largeDiameterM': (c) => c.bubbles.classes === 'small-large' && c.bubbles.largeSizing === 'fixed',
+	'bubbles.largeDrag': (c) => c.bubbles.classes === 'small-large'
 };
 
 export function isShown(field: FieldSpec, doc: CaseDocument): boolean {
