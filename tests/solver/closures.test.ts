@@ -5,6 +5,10 @@ import { darcyFrictionFactor } from '../../solver/closures/friction.js';
 import { swarmDragFactor } from '../../solver/closures/swarm.js';
 import { closureCatalog } from '../../solver/closures/catalog.js';
 import {
+	bubbleClassModels,
+	transitionCorrelations,
+	largeBubbleSizings,
+	largeBubbleDrags,
 	bubbleInducedTurbulenceModels,
 	bubbleSizings,
 	convectionSchemes,
@@ -151,7 +155,11 @@ describe('closure catalogue', () => {
 			[closureCatalog['closures.bubbleInducedTurbulence'], bubbleInducedTurbulenceModels],
 			[closureCatalog['closures.wallFriction'], wallFrictionModels],
 			[closureCatalog['numerics.scheme'], convectionSchemes],
-			[closureCatalog['bubbles.sizing'], bubbleSizings]
+			[closureCatalog['bubbles.sizing'], bubbleSizings],
+			[closureCatalog['bubbles.classes'], bubbleClassModels],
+			[closureCatalog['bubbles.transition'], transitionCorrelations],
+			[closureCatalog['bubbles.largeSizing'], largeBubbleSizings],
+			[closureCatalog['bubbles.largeDrag'], largeBubbleDrags]
 		];
 		// every catalogued field is covered above
 		expect(pairs.length).toBe(Object.keys(closureCatalog).length);
