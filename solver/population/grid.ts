@@ -73,7 +73,7 @@ export interface Lumping {
 }
 
 /**
- * Number- and volume-preserving lumping of one bubble of volume v (Kumar & Ramkrishna 1996, eq. 13 form).
+ * Number- and volume-preserving lumping of one bubble of volume v (Kumar & Ramkrishna 1996, fixed pivot).
  * Written into `into` (no allocation); `index + 1` may equal n only with `high` = 0.
  * Below the grid: index 0, low = v/x_0; above: index n − 2, high = v/x_{n−1} (volume kept, number not).
  */

@@ -7,12 +7,12 @@
  *
  * Sources and what is confirmed:
  * - Prince & Blanch (1990), AIChE J. 36, 1485–1499: the turbulent collision rate and the
- *   film-drainage efficiency with C = 0.089, h₀ = 1e−4 m, h_f = 1e−8 m, as restated with the formulas in
- *   the documentation of an open-source CFD code (not read in the paper itself). The equivalent radius
- *   is taken as r_ij = (1/d_i + 1/d_j)⁻¹ (= r for equal bubbles, Chesters 1991); the paper's printed
+ *   film-drainage efficiency with C = 0.089, h₀ = 1e−4 m, h_f = 1e−8 m, from a secondary restatement of
+ *   the formulas (not read in the paper itself). The equivalent radius
+ *   is taken as r_ij = (1/d_i + 1/d_j)⁻¹ (= r for equal bubbles; Chesters 1991, from memory); the paper's printed
  *   expression is reported to differ from this.
  * - Luo & Svendsen (1996), AIChE J. 42, 1225–1233: the form of the rate density and λ_min = 11.4 η (the
- *   usual default of the range 11.4–31.4) as restated in CFD documentation; the constants C = 0.923
+ *   usual default of the range 11.4–31.4) from a secondary restatement; the constants C = 0.923
  *   and β = 2.05 are from memory.
  * - Ziff & McGrady (1985), J. Phys. A 18, 3027: uniform binary breakage at a rate proportional to volume.
  * - ε ≈ g U_g: power input of the rising gas per unit liquid mass (common practice).

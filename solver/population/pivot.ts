@@ -17,7 +17,7 @@
  * rate density ω_k(f) (1/s per unit f). Its frequency is S_k = ∫_0^½ ω_k df and
  *   dN_i/dt|b = Σ_{k≥i} n_{i,k} S_k N_k − S_i N_i,
  * n_{i,k} = (1/S_k) ∫_0^½ [η_i(f x_k) + η_i((1 − f) x_k)] ω_k(f) df, the number of class-i daughters
- * per breakage (Kumar & Ramkrishna's eq. 25 written in the fraction f). The integral is taken by
+ * per breakage (Kumar & Ramkrishna's breakage coefficients written in the fraction f). The integral is taken by
  * Gauss–Legendre between the kinks of the hat weights (f = x_i/x_k and 1 − x_i/x_k), with f = f₁s² on
  * the first piece [0, f₁] so a rate density like f^(−1/2) at f → 0 stays integrable; S_k uses the same
  * nodes. Each node adds two daughters whose volumes sum to x_k exactly, so breakage conserves volume
