@@ -32,11 +32,15 @@ export function fieldLabel(id: string): { label: string; unit: string } {
 const chartUnits: Record<string, { unit: string; factor: number }> = {
 	Pa: { unit: 'kPa', factor: 1e-3 }
 };
+/** Fields drawn in a unit of their own: bubble diameters of a few millimetres read badly in metres. */
+const fieldChartUnits: Record<string, { unit: string; factor: number }> = {
+	sauterDiameter: { unit: 'mm', factor: 1e3 }
+};
 
 /** Axis title with the unit as drawn, e.g. `gas velocity (m/s)`; dimensionless shows `(–)`. */
 export function axisTitle(id: string): string {
 	const f = fieldLabel(id);
-	const u = chartUnits[f.unit]?.unit ?? f.unit;
+	const u = fieldChartUnits[id]?.unit ?? chartUnits[f.unit]?.unit ?? f.unit;
 	return `${f.label} (${u === '1' ? '–' : u})`;
 }
 
@@ -52,7 +56,7 @@ export const ABSENT_PHASE_FRACTION = 1e-3;
  * where 1 − α < 1e-3, slip where either phase is absent.
  */
 export function chartValues(id: string, values: ArrayLike<number>, holdup?: ArrayLike<number>): ArrayLike<number> {
-	const c = chartUnits[fieldLabel(id).unit];
+	const c = fieldChartUnits[id] ?? chartUnits[fieldLabel(id).unit];
 	const scaled = c ? Array.from(values, (v) => v * c.factor) : values;
 	if (!holdup || holdup.length !== values.length) return scaled;
 	const gasAbsent = (a: number) => a < ABSENT_PHASE_FRACTION;
@@ -79,6 +83,9 @@ export function profileOrder(kind: string): string[] {
 		? ['holdup', 'liquidVelocity', 'gasVelocity', 'effectiveViscosity', 'liftForce', 'wallLubricationForce', 'dispersionForce', 'dragForce']
 		: ['holdup', 'holdupSmall', 'holdupLarge', 'sauterDiameter', 'gasVelocity', 'gasVelocitySmall', 'gasVelocityLarge', 'liquidVelocity', 'slip', 'pressure', 'gasDensity'];
 }
+
+/** Design numbers that are published correlations, shown beside the run's own holdup as checks. */
+export const correlationChecks = ['akitaYoshidaHoldup', 'hughmarkHoldup', 'hikitaHoldup', 'driftFluxHoldup'];
 
 /** Reading order of design numbers (the stored jsonb summary does not keep key order). */
 export const designOrder = [
