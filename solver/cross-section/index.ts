@@ -50,7 +50,7 @@ import { dispersionDiffusivityM2S, radialDispersionForce } from '../closures/dis
 import { logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS, turbulentKineticEnergyM2S2 } from '../closures/turbulence.js';
 import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
 import { GRAVITY_MS2, idealGasDensity } from '../fluids.js';
-import { SOLVER_VERSION } from '../version.js';
+import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 import { createRadialGrid, sectionAverage, sectionAverageProduct, type RadialGrid } from './grid.js';
 import { solveAxialMomentum } from './momentum.js';
 import { transportHoldup } from './transport.js';
@@ -515,7 +515,7 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		restore(cp: Checkpoint): void {
 			if (cp.kind !== 'cross-section') throw new Error(`A ${cp.kind} checkpoint cannot restore a cross-section run`);
 			// continuing bit-identically needs the very same numerics
-			if (cp.solverVersion !== SOLVER_VERSION) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
+			if (!canContinueCheckpoint(cp.solverVersion, true)) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 			const dd = cp.data;
 			const arr = (k: string): Float64Array => {
 				const raw: unknown = dd[k];

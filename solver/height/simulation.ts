@@ -23,7 +23,7 @@ import { zuberFindlayHoldup } from '../correlations/drift-flux.js';
 import { higbieMassTransferCoefficient } from '../correlations/mass-transfer.js';
 import { regimeFromBand, regimeFromTransition } from '../correlations/regime.js';
 import { hikitaHoldup } from '../correlations/churn.js';
-import { SOLVER_VERSION } from '../version.js';
+import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
@@ -361,7 +361,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		const d = cp.data;
 		if (cp.kind !== 'height-profile') throw new Error(`Checkpoint of a ${cp.kind} run cannot restore a height-profile simulation`);
 		// continuing bit-identically needs the very same numerics
-		if (cp.solverVersion !== SOLVER_VERSION) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
+		if (!canContinueCheckpoint(cp.solverVersion, m.nc === 1)) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 		if (d.cells !== m.n) throw new Error(`Checkpoint has ${String(d.cells)} cells, this case has ${m.n}`);
 		const arr = (name: string, into: Float64Array) => {
 			const v = d[name];

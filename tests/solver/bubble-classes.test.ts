@@ -208,3 +208,19 @@ describe('conservation and restart with two classes', () => {
 		expect(r.design.regime.value).toBe(1);
 	});
 });
+
+describe('checkpoints across the solver version that added the classes', () => {
+	it('continue a one-class checkpoint of 1.0.0 and refuse a two-class one', () => {
+		const one = createSimulation(oneClassCase());
+		for (let i = 0; i < 50; i++) one.step();
+		const cp = { ...one.checkpoint(), solverVersion: '1.0.0' };
+		const again = createSimulation(oneClassCase());
+		again.restore(cp);
+		one.step();
+		again.step();
+		expect(Array.from(again.snapshot().fields.holdup)).toEqual(Array.from(one.snapshot().fields.holdup));
+		const two = createSimulation(column(0.3, 0.1));
+		const cp2 = { ...two.checkpoint(), solverVersion: '1.0.0' };
+		expect(() => createSimulation(column(0.3, 0.1)).restore(cp2)).toThrow(/cannot continue/);
+	});
+});
