@@ -20,6 +20,12 @@
  * follows from the new pressure. The liquid is conserved to round-off; the gas to the linearisation error.
  * The time step follows a material Courant number over the phases present in each cell.
  *
+ * Bubble classes (`cfg.classes`, PHYSICS §8.8): the gas may be N dispersed fields k with holdup α_k = α y_k, each
+ * with the gas momentum equation above (its own drag, virtual mass and share of the interfacial pressure) and its
+ * own continuity; they share the pressure. Per face the (N+1)×(N+1) block is an arrow (each class couples only
+ * to the liquid) and is eliminated in O(N) (`classFaceMomentum`); the pressure step stays one tridiagonal solve.
+ * With one class the arithmetic is that of the one-class model, operation for operation.
+ *
  * Boundaries: bottom inflow (gas mass flux, liquid volume flux) or wall; top pressure outlet (gas leaves
  * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
  * No allocation per step: every array is allocated once in the constructor.
