@@ -131,6 +131,9 @@ export class HeightModel {
 	private readonly classEotvos: Float64Array;
 	private readonly classLaw: Int32Array;
 	private readonly classSwarmPow: Float64Array;
+	private readonly classDiameter: Float64Array;
+	/** 0.75 μ_l (drag factor)/d² of each class: K = α_k C_D·Re times this */
+	private readonly classDragScale: Float64Array;
 	private readonly outsideGasDensity: number;
 	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
 	/** max |Δα_l|/Δt of the last step, 1/s */
@@ -208,8 +211,12 @@ export class HeightModel {
 		this.classEotvos = new Float64Array(nc);
 		this.classLaw = new Int32Array(nc);
 		this.classSwarmPow = new Float64Array(nc);
+		this.classDiameter = new Float64Array(nc);
+		this.classDragScale = new Float64Array(nc);
 		for (let k = 0; k < nc; k++) {
 			const c = this.classes[k];
+			this.classDiameter[k] = c.diameterM;
+			this.classDragScale[k] = (0.75 * cfg.liquidViscosityPaS * c.dragFactor) / (c.diameterM * c.diameterM);
 			const gAbs = Math.abs(cfg.gravityAxialMS2);
 			this.classEotvos[k] = eotvosNumber({ diameterM: c.diameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: gAbs });
 			this.classLaw[k] = c.drag === 'spherical-cap' ? SPHERICAL_CAP_CODE : DRAG_LAW_CODES[c.drag];
@@ -772,12 +779,11 @@ export class HeightModel {
 				const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
 				let kk = 0;
 				if (dragOn) {
-					const c = this.classes[k];
-					const d = c.diameterM;
+					const d = this.classDiameter[k];
 					const law = this.classLaw[k];
 					const re = (rl * aur * d) / mul;
 					const cdRe = law === SPHERICAL_CAP_CODE ? (8 / 3) * re : dragCdRe(law, re, this.classEotvos[k], af);
-					let kb = (0.75 * agk * mul * cdRe * c.dragFactor) / (d * d);
+					let kb = agk * cdRe * this.classDragScale[k];
 					const sp = this.classSwarmPow[k];
 					if (sp !== 0) kb *= Math.exp(sp * Math.log(alq > 1e-6 ? alq : 1e-6));
 					kk = kb;
