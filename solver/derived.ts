@@ -54,6 +54,11 @@ export function spargerPressurePaAtRest(c: CaseDocument): number {
 	return c.fluids.topPressurePa + c.fluids.liquid.densityKgM3 * GRAVITY_MS2 * c.geometry.clearLiquidLevelM;
 }
 
+/** Gas density at the sparger with the column at rest (ideal gas), kg/m³. */
+export function spargerGasDensityAtRest(c: CaseDocument): number {
+	return idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+}
+
 /** Gas mass flux fed at the sparger, kg/(m² s), from the superficial velocity on its stated basis. */
 export function gasMassFlux(c: CaseDocument): number {
 	const basisPressure = c.sparging.gasVelocityBasis === 'normal' ? NORMAL_PRESSURE_PA : spargerPressurePaAtRest(c);
@@ -65,7 +70,7 @@ export function gasMassFlux(c: CaseDocument): number {
 /** Bubble diameter of the case: the fixed value, or Akita & Yoshida (1974) at sparger conditions. */
 export function bubbleDiameter(c: CaseDocument): number {
 	if (c.bubbles.sizing === 'fixed' || c.sparging.superficialGasVelocityMS <= 0) return c.bubbles.diameterM;
-	const rhoSp = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rhoSp = spargerGasDensityAtRest(c);
 	return akitaYoshidaSauterDiameter({
 		diameterM: c.geometry.diameterM,
 		superficialGasVelocityMS: gasMassFlux(c) / rhoSp,
@@ -78,8 +83,7 @@ export function bubbleDiameter(c: CaseDocument): number {
 export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	const l = c.fluids.liquid;
 	const g = GRAVITY_MS2;
-	const pSp = spargerPressurePaAtRest(c);
-	const rhoSp = idealGasDensity({ pressurePa: pSp, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rhoSp = spargerGasDensityAtRest(c);
 	const rhoTop = idealGasDensity({ pressurePa: c.fluids.topPressurePa, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
 	const d = bubbleDiameter(c);
 	const props = { diameterM: d, liquidDensityKgM3: l.densityKgM3, gasDensityKgM3: rhoSp, liquidViscosityPaS: l.viscosityPaS, surfaceTensionNM: l.surfaceTensionNM };
@@ -95,7 +99,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 					transitionSource: plan.transitionSource,
 					largeDiameterM: plan.classes[1].diameterM,
 					largeGasShare: plan.classes[1].inflowShare,
-					largeSwarmVelocityMS: 0.71 * Math.sqrt(g * plan.classes[1].diameterM) * plan.wallFactor * plan.accelerationFactor
+					largeSwarmVelocityMS: plan.largeSwarmVelocityMS
 				}
 			: null;
 	const regime = classes

@@ -49,12 +49,6 @@ export function krishnaAccelerationFactor(excessVelocityMS: number): number {
 	return 2.73 + 4.505 * Math.max(excessVelocityMS, 0);
 }
 
-/** Swarm rise velocity of the large bubbles, V_b = 0.71 √(g d_b) SF AF (Davies & Taylor 1950 with the factors above). */
-export function largeBubbleSwarmVelocity(o: { bubbleDiameterM: number; columnDiameterM: number; excessVelocityMS: number; gravityMS2?: number }): number {
-	const g = o.gravityMS2 ?? GRAVITY_MS2;
-	return 0.71 * Math.sqrt(g * o.bubbleDiameterM) * collinsWallFactor(o.bubbleDiameterM, o.columnDiameterM) * krishnaAccelerationFactor(o.excessVelocityMS);
-}
-
 /**
  * Hikita, Asai, Tanigawa, Segawa & Kitao (1980), Chem. Eng. J. 20, 59: ε = 0.672 f (U_G μ_L/σ)^0.578
  * (μ_L⁴ g/(ρ_L σ³))^−0.131 (ρ_G/ρ_L)^0.062 (μ_G/μ_L)^0.107, f = 1 for non-electrolytes (constants from memory;

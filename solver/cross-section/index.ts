@@ -48,8 +48,8 @@ import { tomiyamaLiftFromWidthEotvos, tomiyamaWidthEotvos } from '../closures/li
 import { wallLubricationForce } from '../closures/wall-lubrication.js';
 import { dispersionDiffusivityM2S, radialDispersionForce } from '../closures/dispersion.js';
 import { logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS, turbulentKineticEnergyM2S2 } from '../closures/turbulence.js';
-import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
-import { GRAVITY_MS2, idealGasDensity } from '../fluids.js';
+import { bubbleDiameter, gasMassFlux, spargerGasDensityAtRest } from '../derived.js';
+import { GRAVITY_MS2 } from '../fluids.js';
 import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 import { createRadialGrid, sectionAverage, sectionAverageProduct, type RadialGrid } from './grid.js';
 import { solveAxialMomentum } from './momentum.js';
@@ -96,7 +96,7 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 	const sigma = c.fluids.liquid.surfaceTensionNM;
 	// gas conditions of the section: those at the sparger with the column at rest, the basis on which the
 	// analyst quotes U_g (a 'normal' basis is converted by mass flux), the same as the height model's inlet
-	const rg = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rg = spargerGasDensityAtRest(c);
 	const ugs = c.sparging.gasVelocityBasis === 'sparger' ? c.sparging.superficialGasVelocityMS : gasMassFlux(c) / rg;
 	const dCol = c.geometry.diameterM;
 	const d = bubbleDiameter(c);

@@ -3,9 +3,9 @@
  * the sparger by the regime transition. Used by the height-profile configuration and the editor's derived numbers.
  */
 import type { CaseDocument } from '../case.js';
-import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
+import { bubbleDiameter, gasMassFlux, spargerGasDensityAtRest } from '../derived.js';
 import { collinsWallFactor, krishnaAccelerationFactor, krishnaLargeBubbleDiameter, reillyTransition, type TransitionPoint } from '../correlations/churn.js';
-import { idealGasDensity } from '../fluids.js';
+import { GRAVITY_MS2 } from '../fluids.js';
 import type { GasClassConfig } from './config.js';
 
 /** Davies & Taylor (1950) cap-bubble coefficient: V = 0.71 √(g d). The cap drag C_D = 8/3 gives 1/√2; this factor closes the gap. */
@@ -16,18 +16,17 @@ export interface ClassPlan {
 	/** the transition used to divide the gas (two classes only) */
 	transition: TransitionPoint | null;
 	transitionSource: string;
-	/** superficial gas velocity at the sparger, m/s */
-	spargerVelocityMS: number;
 	/** large-bubble wall and acceleration factors (two classes only) */
 	wallFactor: number;
 	accelerationFactor: number;
+	/** large-bubble swarm velocity 0.71 √(g d) SF AF, m/s (two classes only) */
+	largeSwarmVelocityMS: number;
 }
 
 /** The transition of the case: Reilly et al. (1994) at the sparger gas density, or the analyst's fixed values. */
-export function caseTransition(c: CaseDocument): { point: TransitionPoint; source: string } {
+function caseTransition(c: CaseDocument, rhoSp: number): { point: TransitionPoint; source: string } {
 	const b = c.bubbles;
 	if (b.transition === 'fixed') return { point: { velocityMS: b.transitionVelocityMS, holdup: b.transitionHoldup }, source: 'entered by the analyst' };
-	const rhoSp = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
 	return {
 		point: reillyTransition({ gasDensityKgM3: rhoSp, liquidDensityKgM3: c.fluids.liquid.densityKgM3, surfaceTensionNM: c.fluids.liquid.surfaceTensionNM }),
 		source: 'Reilly et al. (1994), Can. J. Chem. Eng. 72, 3'
@@ -37,13 +36,13 @@ export function caseTransition(c: CaseDocument): { point: TransitionPoint; sourc
 /** The bubble classes of a validated case. */
 export function planClasses(c: CaseDocument): ClassPlan {
 	const d = bubbleDiameter(c);
-	const rhoSp = idealGasDensity({ pressurePa: spargerPressurePaAtRest(c), molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rhoSp = spargerGasDensityAtRest(c);
 	const jg = gasMassFlux(c) / rhoSp;
 	const small: GasClassConfig = { id: 'small', label: 'Small bubbles', diameterM: d, drag: c.closures.drag, swarm: c.closures.swarm, dragFactor: 1, inflowShare: 1 };
 	if (c.bubbles.classes === 'single') {
-		return { classes: [{ ...small, id: 'gas', label: 'Bubbles' }], transition: null, transitionSource: '', spargerVelocityMS: jg, wallFactor: 1, accelerationFactor: 1 };
+		return { classes: [{ ...small, id: 'gas', label: 'Bubbles' }], transition: null, transitionSource: '', wallFactor: 1, accelerationFactor: 1, largeSwarmVelocityMS: 0 };
 	}
-	const { point, source } = caseTransition(c);
+	const { point, source } = caseTransition(c, rhoSp);
 	const excess = Math.max(jg - point.velocityMS, 0);
 	const share = jg > 0 ? excess / jg : 0;
 	// below the transition the large class is empty; its size is still defined (never below twice the small bubbles)
@@ -58,8 +57,8 @@ export function planClasses(c: CaseDocument): ClassPlan {
 		],
 		transition: point,
 		transitionSource: source,
-		spargerVelocityMS: jg,
 		wallFactor: sf,
-		accelerationFactor: af
+		accelerationFactor: af,
+		largeSwarmVelocityMS: 0.71 * Math.sqrt(GRAVITY_MS2 * dl) * sf * af
 	};
 }

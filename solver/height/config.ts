@@ -7,8 +7,8 @@ import { terminalVelocity } from '../closures/drag.js';
 import type { SwarmCorrection } from '../closures/swarm.js';
 import type { VirtualMassModel } from '../closures/virtual-mass.js';
 import type { WallFrictionModel } from '../closures/friction.js';
-import { bubbleDiameter, gasMassFlux, spargerPressurePaAtRest } from '../derived.js';
-import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2, idealGasDensity } from '../fluids.js';
+import { bubbleDiameter, gasMassFlux, spargerGasDensityAtRest } from '../derived.js';
+import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2 } from '../fluids.js';
 import { planClasses } from './classes.js';
 
 /** Bottom end (z = 0): prescribed inflow of both phases, or a closed wall. */
@@ -71,6 +71,8 @@ export interface HeightModelConfig {
 	bubbleDiameterM: number;
 	/** numbers known before the run that the results carry (expected transition, large-bubble size), SI */
 	expected?: Record<string, { value: number; unit: string; label: string }>;
+	/** where the transition of the classes comes from (the regime label names it) */
+	transitionSource?: string;
 	/** two or more bubble classes; omitted = one class of `bubbleDiameterM` with `drag` and `swarm` */
 	classes?: GasClassConfig[];
 	/** 'none' switches interfacial drag off (the faucet benchmark assumes no interfacial friction) */
@@ -110,8 +112,7 @@ export interface HeightModelConfig {
 /** Build the model configuration of a validated height-profile case. */
 export function configFromCase(c: CaseDocument): HeightModelConfig {
 	const d = bubbleDiameter(c);
-	const pSp = spargerPressurePaAtRest(c);
-	const rhoSp = idealGasDensity({ pressurePa: pSp, molarMassKgMol: c.fluids.gas.molarMassKgMol, temperatureK: c.fluids.temperatureK });
+	const rhoSp = spargerGasDensityAtRest(c);
 	const l = c.fluids.liquid;
 	const ut = terminalVelocity({ law: c.closures.drag, diameterM: d, liquidDensityKgM3: l.densityKgM3, gasDensityKgM3: rhoSp, liquidViscosityPaS: l.viscosityPaS, surfaceTensionNM: l.surfaceTensionNM });
 	const level = c.geometry.clearLiquidLevelM;
@@ -126,7 +127,7 @@ export function configFromCase(c: CaseDocument): HeightModelConfig {
 		expected.largeWallFactor = { value: plan.wallFactor, unit: '1', label: 'Large-bubble wall factor (Collins 1967)' };
 	}
 	return {
-		...(plan.classes.length > 1 ? { classes: plan.classes, expected } : {}),
+		...(plan.classes.length > 1 ? { classes: plan.classes, expected, transitionSource: plan.transitionSource } : {}),
 		cells: c.numerics.cells,
 		heightM: c.geometry.heightM,
 		diameterM: c.geometry.diameterM,

@@ -525,8 +525,9 @@ export class HeightModel {
 				const w = this.classW[k];
 				const y = this.classShare[k];
 				const cg = uk[j] * courantScale;
-				if (uk[j] >= 0) w[j] = nc === 1 ? this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1] : this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[j - 1] * y[j - 1];
-				else w[j] = nc === 1 ? this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j] : this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[j] * y[j];
+				const dn = uk[j] >= 0 ? j - 1 : j;
+				const base = uk[j] >= 0 ? this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[dn] : this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[dn];
+				w[j] = nc === 1 ? base : base * y[dn];
 			}
 			// liquid whose upwind cell is (nearly) empty while the other side is (nearly) full takes the other side
 			// as donor: at a level crossing a face the bubbles' velocity points up and the drops' velocity down, and
@@ -641,8 +642,7 @@ export class HeightModel {
 		for (let j = 1; j <= n; j++) {
 			if (!solved[j]) {
 				gf[j] = 0;
-				for (let k = 1; k < nc; k++) this.classFlux[k][j] = 0;
-				if (nc > 1) this.classFlux[0][j] = 0;
+				if (nc > 1) for (let k = 0; k < nc; k++) this.classFlux[k][j] = 0;
 				lfx[j] = wl[j] * ul0[j];
 				continue;
 			}
@@ -694,7 +694,6 @@ export class HeightModel {
 		}
 		this.lastMaxHoldupRate = maxRate / dt;
 		this.applyBoundaryVelocities();
-		// (applyBoundaryVelocities also refreshes the mean gas velocity of several classes)
 		this.diag.gasInKgM2S = gf[0] + (gf[n] < 0 ? -gf[n] : 0);
 		this.diag.gasOutKgM2S = gf[n] > 0 ? gf[n] : 0;
 		this.diag.liquidInMS = lfx[0] - (lfx[n] < 0 ? lfx[n] : 0);

@@ -444,7 +444,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		const jg = fin / (cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3);
 		const ut = cfg.expected?.transitionVelocityMS;
 		const regime = ut
-			? regimeFromTransition({ superficialGasVelocityMS: jg, transitionVelocityMS: ut.value, source: ut.label.replace(/^[^(]*\((.*)\)$/, '$1') })
+			? regimeFromTransition({ superficialGasVelocityMS: jg, transitionVelocityMS: ut.value, source: cfg.transitionSource ?? '' })
 			: regimeFromBand({ superficialGasVelocityMS: jg });
 		const liq = this.liquidInventoryM();
 		const liquidErr = this.liquid0 > 0 ? Math.abs(liq - this.liquid0 - this.liquidNetInM) / this.liquid0 : 0;
