@@ -27,13 +27,21 @@ export interface SweeperOptions {
 export async function sweepStaleRuns(o: Omit<SweeperOptions, 'intervalMs'>): Promise<string[]> {
 	return withTransaction(o.handle.pool, async (tx) => {
 		const stale = await tx.db
-			.select({ id: runs.id, jobId: runs.jobId, attempts: runs.attempts, cancelRequested: runs.cancelRequested, caseDocument: runs.caseDocument })
+			.select({
+				id: runs.id,
+				jobId: runs.jobId,
+				attempts: runs.attempts,
+				cancelRequested: runs.cancelRequested,
+				caseDocument: runs.caseDocument,
+				solverVersion: runs.solverVersion,
+				studyIndex: runs.studyIndex
+			})
 			.from(runs)
 			.where(and(eq(runs.status, 'running'), lt(runs.heartbeatAt, sql`now() - make_interval(secs => ${o.staleAfterS})`)))
 			.limit(20)
 			.for('update', { skipLocked: true });
 		for (const run of stale) {
-			if (run.jobId) await cancelSolveJob({ boss: o.boss, client: tx.client, jobId: run.jobId });
+			if (run.jobId) await cancelSolveJob({ boss: o.boss, client: tx.client, jobId: run.jobId, solverVersion: run.solverVersion });
 			if (run.cancelRequested || run.attempts >= o.maxAttempts) {
 				const cancelled = run.cancelRequested;
 				await tx.db
@@ -50,7 +58,14 @@ export async function sweepStaleRuns(o: Omit<SweeperOptions, 'intervalMs'>): Pro
 				await tx.db.delete(checkpoints).where(eq(checkpoints.runId, run.id));
 				o.log(`run ${run.id}: worker lost; ${cancelled ? 'cancelled as requested' : 'failed after ' + run.attempts + ' attempts'}`);
 			} else {
-				const jobId = await sendSolveJob({ boss: o.boss, client: tx.client, runId: run.id, caseDoc: run.caseDocument });
+				const jobId = await sendSolveJob({
+					boss: o.boss,
+					client: tx.client,
+					runId: run.id,
+					caseDoc: run.caseDocument,
+					solverVersion: run.solverVersion,
+					studyIndex: run.studyIndex
+				});
 				await tx.db.update(runs).set({ status: 'queued', jobId, workerId: null, heartbeatAt: null }).where(eq(runs.id, run.id));
 				o.log(`run ${run.id}: heartbeat stale for over ${o.staleAfterS} s; re-queued as job ${jobId}`);
 			}

@@ -5,12 +5,15 @@
  */
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './db/app.js';
+import { isUuid } from './guard.js';
 import { cases, runs, signOffs } from './db/schema.js';
 import { validateCase, type CaseDocument } from '../../../solver/case.js';
 
 export type Case = typeof cases.$inferSelect;
 
 export async function getCase(options: { teamId: string; id: string }): Promise<Case | null> {
+	// a malformed id would make PostgreSQL raise instead of matching nothing
+	if (!isUuid(options.id)) return null;
 	const [row] = await db
 		.select()
 		.from(cases)
@@ -43,6 +46,7 @@ export async function createCase(options: { teamId: string; columnId: string; us
 }
 
 export async function updateCase(options: { teamId: string; id: string; document: unknown }): Promise<Case | null> {
+	if (!isUuid(options.id)) return null;
 	const doc = checked(options.document);
 	const [row] = await db
 		.update(cases)
@@ -104,7 +108,7 @@ export async function listCasesForColumn(options: { teamId: string; columnId: st
 /** The newest verdict per subject (the newest sign-off row is the current state). */
 export async function latestVerdicts(options: {
 	teamId: string;
-	subjectType: 'case' | 'comparison';
+	subjectType: 'case' | 'comparison' | 'study';
 	subjectIds: string[];
 }): Promise<Map<string, string>> {
 	const out = new Map<string, string>();

@@ -8,7 +8,7 @@ import { db } from './db/app.js';
 import { cases, comments, comparisons, runs, signOffs, users } from './db/schema.js';
 import { sendMail } from './mail/send.js';
 
-export type SubjectType = 'case' | 'comparison';
+export type SubjectType = 'case' | 'comparison' | 'study';
 export type Verdict = 'approved-basis' | 'changes-requested';
 
 export const signOffForm = z
@@ -68,6 +68,12 @@ async function analystsToTell(options: { teamId: string; subjectType: SubjectTyp
 			.from(comparisons)
 			.where(and(eq(comparisons.id, options.subjectId), eq(comparisons.teamId, options.teamId)));
 		runIds = c?.runIds ?? [];
+	} else if (options.subjectType === 'study') {
+		const rows = await db
+			.select({ id: runs.id })
+			.from(runs)
+			.where(and(eq(runs.studyId, options.subjectId), eq(runs.teamId, options.teamId)));
+		runIds = rows.map((r) => r.id);
 	} else {
 		const rows = await db
 			.select({ id: runs.id })

@@ -19,7 +19,9 @@ import {
 	uniqueIndex,
 	uuid
 } from 'drizzle-orm/pg-core';
+import type { AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { CaseDocument } from '../../../../solver/case.js';
+import type { StudyPoint } from '../../studies/types.js';
 
 const bytea = customType<{ data: Buffer; driverData: Buffer }>({
 	dataType() {
@@ -100,6 +102,8 @@ export const teams = pgTable('teams', {
 	slug: text('slug').notNull().unique(),
 	/** how many runs of this team may wait in the queue or run at once */
 	maxActiveRuns: integer('max_active_runs').notNull().default(8),
+	/** how many member runs one study may queue (its admin sets it); study members do not count against max_active_runs */
+	maxStudyRuns: integer('max_study_runs').notNull().default(100),
 	createdAt: createdAt()
 });
 
@@ -251,10 +255,72 @@ export const runs = pgTable(
 		simulatedTimeS: doublePrecision('simulated_time_s').notNull().default(0),
 		wallTimeS: doublePrecision('wall_time_s').notNull().default(0),
 		summary: jsonb('summary').$type<Record<string, unknown>>(),
-		errorMessage: text('error_message')
+		errorMessage: text('error_message'),
+		/** the study this run is a member of (null for a run queued on its own) */
+		studyId: uuid('study_id').references((): AnyPgColumn => studies.id, { onDelete: 'set null' }),
+		/** position in its study (0-based): also its queue priority, −index, so studies interleave */
+		studyIndex: integer('study_index'),
+		/** the member's inputs, e.g. { label: 'U_g = 0.05 m/s', values: { superficialGasVelocityMS: 0.05 } } */
+		studyPoint: jsonb('study_point').$type<StudyPoint>()
 	},
-	(t) => [index('runs_team_status_idx').on(t.teamId, t.status), index('runs_column_idx').on(t.columnId, t.queuedAt)]
+	(t) => [
+		index('runs_team_status_idx').on(t.teamId, t.status),
+		index('runs_column_idx').on(t.columnId, t.queuedAt),
+		index('runs_study_idx').on(t.studyId, t.studyIndex)
+	]
 );
+
+export const studyKindEnum = pgEnum('study_kind', ['sweep', 'closure-matrix', 'grid']);
+export type StudyKindValue = (typeof studyKindEnum.enumValues)[number];
+
+/**
+ * One question asked of many runs: a sweep of inputs, a closure matrix or a grid study. Its
+ * members are ordinary runs (`runs.study_id`); its state is derived from theirs.
+ */
+export const studies = pgTable(
+	'studies',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id')
+			.notNull()
+			.references(() => teams.id, { onDelete: 'cascade' }),
+		columnId: uuid('column_id')
+			.notNull()
+			.references(() => columns.id, { onDelete: 'cascade' }),
+		caseId: uuid('case_id').references(() => cases.id, { onDelete: 'set null' }),
+		name: text('name').notNull(),
+		kind: studyKindEnum('kind').notNull(),
+		/** the kind's settings (src/lib/studies/spec.ts), validated */
+		spec: jsonb('spec').$type<Record<string, unknown>>().notNull(),
+		/** the case every member starts from, frozen when the study was created */
+		baseCase: jsonb('base_case').$type<CaseDocument>().notNull(),
+		memberCount: integer('member_count').notNull(),
+		/** measurement the members are ranked against / drawn with */
+		measurementId: uuid('measurement_id').references(() => measurements.id, { onDelete: 'set null' }),
+		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		cancelledAt: timestamp('cancelled_at', { withTimezone: true, mode: 'date' })
+	},
+	(t) => [index('studies_column_idx').on(t.teamId, t.columnId, t.createdAt)]
+);
+
+/**
+ * Worker processes, on any machine, sharing the database. Each registers at start and refreshes
+ * `heartbeat_at` every few seconds; one whose heartbeat is old and that did not say it stopped is lost.
+ */
+export const workers = pgTable('workers', {
+	/** host:pid:random, as stored on the runs it claims */
+	id: text('id').primaryKey(),
+	host: text('host').notNull(),
+	pid: integer('pid').notNull(),
+	slots: integer('slots').notNull(),
+	solverVersion: text('solver_version').notNull(),
+	startedAt: timestamp('started_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+	heartbeatAt: timestamp('heartbeat_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+	stoppedAt: timestamp('stopped_at', { withTimezone: true, mode: 'date' }),
+	activeRuns: integer('active_runs').notNull().default(0),
+	runsDone: integer('runs_done').notNull().default(0)
+});
 
 /** Append-only residual history; (run, step) is unique so a resumed run never writes a step twice. */
 export const residuals = pgTable(
@@ -356,7 +422,7 @@ export const comparisons = pgTable(
 	(t) => [index('comparisons_column_idx').on(t.teamId, t.columnId)]
 );
 
-export const subjectTypeEnum = pgEnum('subject_type', ['case', 'comparison', 'run']);
+export const subjectTypeEnum = pgEnum('subject_type', ['case', 'comparison', 'run', 'study']);
 export const verdictEnum = pgEnum('verdict', ['approved-basis', 'changes-requested']);
 
 /** The lead's verdict on a case or comparison; the newest row is the current state. */

@@ -8,7 +8,7 @@
  * There is no outbox; a rollback removes both.
  */
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
-import { and, eq, inArray, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNull, sql } from 'drizzle-orm';
 import type pg from 'pg';
 import type PgBoss from 'pg-boss';
 import * as schema from '../db/schema.js';
@@ -16,6 +16,7 @@ import type { DbHandle } from '../db/index.js';
 import { validateCase, type CaseDocument } from '../../../../solver/case.js';
 import { SOLVER_VERSION } from '../../../../solver/index.js';
 import { cancelSolveJob, sendSolveJob, RUN_CHANNEL } from './jobs.js';
+import type { StudyPoint } from '../../studies/types.js';
 
 const { cases, runs, teams } = schema;
 export type Run = typeof runs.$inferSelect;
@@ -52,7 +53,7 @@ export async function withTransaction<T>(pool: pg.Pool, fn: (tx: { client: pg.Po
 	}
 }
 
-interface Deps {
+export interface Deps {
 	handle: DbHandle;
 	boss: PgBoss;
 }
@@ -60,25 +61,36 @@ interface Deps {
 /**
  * Insert a run with its frozen case copy and send its job, within the team's limit of runs
  * queued or running at once (`teams.max_active_runs`). The team row is locked for the count, so
- * two simultaneous requests cannot both take the last place.
+ * two simultaneous requests cannot both take the last place. Study members do not count against
+ * that limit (a study has its own cap, `teams.max_study_runs`, checked by the study verbs) and queue
+ * behind single runs (`runPriority`).
  */
-async function insertQueuedRun(
+export async function insertQueuedRun(
 	tx: { client: pg.PoolClient; db: TxDb },
 	deps: Deps,
-	o: { teamId: string; columnId: string; caseId: string | null; caseDoc: CaseDocument; userId: string | null }
+	o: {
+		teamId: string;
+		columnId: string;
+		caseId: string | null;
+		caseDoc: CaseDocument;
+		userId: string | null;
+		study?: { id: string; index: number; point: StudyPoint };
+	}
 ): Promise<Run> {
-	const [team] = await tx.db.select({ maxActiveRuns: teams.maxActiveRuns }).from(teams).where(eq(teams.id, o.teamId)).for('update');
-	if (!team) throw new RunRequestError('Team not found', 404);
-	const [{ active }] = await tx.db
-		.select({ active: sql<number>`count(*)::int` })
-		.from(runs)
-		.where(and(eq(runs.teamId, o.teamId), inArray(runs.status, [...ACTIVE_STATUSES])));
-	if (active >= team.maxActiveRuns) {
-		throw new RunRequestError(
-			`Your team already has ${active} ${active === 1 ? 'run' : 'runs'} queued or running, the most it may have at once (${team.maxActiveRuns}). ` +
-				'Wait for one to end or cancel one, then queue again.',
-			429
-		);
+	if (!o.study) {
+		const [team] = await tx.db.select({ maxActiveRuns: teams.maxActiveRuns }).from(teams).where(eq(teams.id, o.teamId)).for('update');
+		if (!team) throw new RunRequestError('Team not found', 404);
+		const [{ active }] = await tx.db
+			.select({ active: sql<number>`count(*)::int` })
+			.from(runs)
+			.where(and(eq(runs.teamId, o.teamId), inArray(runs.status, [...ACTIVE_STATUSES]), isNull(runs.studyId)));
+		if (active >= team.maxActiveRuns) {
+			throw new RunRequestError(
+				`Your team already has ${active} ${active === 1 ? 'run' : 'runs'} queued or running, the most it may have at once (${team.maxActiveRuns}). ` +
+					'Wait for one to end or cancel one, then queue again.',
+				429
+			);
+		}
 	}
 	const [run] = await tx.db
 		.insert(runs)
@@ -89,10 +101,13 @@ async function insertQueuedRun(
 			caseDocument: o.caseDoc,
 			solverVersion: SOLVER_VERSION,
 			status: 'queued',
-			queuedBy: o.userId
+			queuedBy: o.userId,
+			studyId: o.study?.id ?? null,
+			studyIndex: o.study?.index ?? null,
+			studyPoint: o.study?.point ?? null
 		})
 		.returning();
-	const jobId = await sendSolveJob({ boss: deps.boss, client: tx.client, runId: run.id, caseDoc: o.caseDoc });
+	const jobId = await sendSolveJob({ boss: deps.boss, client: tx.client, runId: run.id, caseDoc: o.caseDoc, studyIndex: o.study?.index });
 	const [withJob] = await tx.db.update(runs).set({ jobId }).where(eq(runs.id, run.id)).returning();
 	await tx.client.query('select pg_notify($1, $2)', [RUN_CHANNEL, run.id]);
 	return withJob;
@@ -124,7 +139,9 @@ export async function rerun(o: Deps & { teamId: string; runId: string; userId: s
 		if (!old) throw new RunRequestError('Run not found', 404);
 		const checked = validateCase(old.caseDocument);
 		if (!checked.ok) throw new RunRequestError(`The frozen case no longer validates: ${checked.issues.map((i) => i.message).join('; ')}`, 400);
-		return insertQueuedRun(tx, o, { teamId: o.teamId, columnId: old.columnId, caseId: old.caseId, caseDoc: checked.value, userId: o.userId });
+		// a re-run of a study member takes its place in the study (the study shows the newest run of each position)
+		const study = old.studyId != null && old.studyIndex != null && old.studyPoint ? { id: old.studyId, index: old.studyIndex, point: old.studyPoint } : undefined;
+		return insertQueuedRun(tx, o, { teamId: o.teamId, columnId: old.columnId, caseId: old.caseId, caseDoc: checked.value, userId: o.userId, study });
 	});
 }
 
@@ -141,20 +158,25 @@ export async function cancel(o: Deps & { teamId: string; runId: string }): Promi
 			.where(and(eq(runs.id, o.runId), eq(runs.teamId, o.teamId)))
 			.for('update');
 		if (!run) throw new RunRequestError('Run not found', 404);
-		if (run.status === 'queued') {
-			if (run.jobId) await cancelSolveJob({ boss: o.boss, client: tx.client, jobId: run.jobId });
-			const [updated] = await tx.db
-				.update(runs)
-				.set({ status: 'cancelled', cancelRequested: true, finishedAt: new Date(), errorMessage: 'Cancelled before it started' })
-				.where(eq(runs.id, run.id))
-				.returning();
-			await tx.client.query('select pg_notify($1, $2)', [RUN_CHANNEL, run.id]);
-			return updated;
-		}
-		if (run.status === 'running') {
-			const [updated] = await tx.db.update(runs).set({ cancelRequested: true }).where(eq(runs.id, run.id)).returning();
-			return updated;
-		}
-		return run;
+		return cancelLocked(tx, o, run);
 	});
+}
+
+/** Cancel one run whose row the caller's transaction has locked (`for update`). */
+export async function cancelLocked(tx: { client: pg.PoolClient; db: TxDb }, deps: Deps, run: Run, reason = 'Cancelled before it started'): Promise<Run> {
+	if (run.status === 'queued') {
+		if (run.jobId) await cancelSolveJob({ boss: deps.boss, client: tx.client, jobId: run.jobId, solverVersion: run.solverVersion });
+		const [updated] = await tx.db
+			.update(runs)
+			.set({ status: 'cancelled', cancelRequested: true, finishedAt: new Date(), errorMessage: reason })
+			.where(eq(runs.id, run.id))
+			.returning();
+		await tx.client.query('select pg_notify($1, $2)', [RUN_CHANNEL, run.id]);
+		return updated;
+	}
+	if (run.status === 'running') {
+		const [updated] = await tx.db.update(runs).set({ cancelRequested: true }).where(eq(runs.id, run.id)).returning();
+		return updated;
+	}
+	return run;
 }

@@ -12,6 +12,22 @@ import * as signoffs from '$lib/server/signoffs';
 import { verdictActions } from '$lib/server/verdict-actions';
 import * as runs from '$lib/server/runs';
 import { caseSchema, validateCase } from '$solver/case';
+import * as studyServer from '$lib/server/studies';
+import { gridConvergence } from '$lib/studies/results';
+import { cellSize } from '$lib/studies/spec';
+
+/** The case's studies, and the discretisation uncertainty from its newest grid study with three finished grids. */
+async function caseStudies(teamId: string, caseId: string) {
+	const list = await studyServer.listStudies({ db, teamId, caseId, limit: 20 });
+	for (const s of list.filter((x) => x.kind === 'grid' && x.counts.done >= 3)) {
+		const study = await studyServer.getStudy({ db, teamId, studyId: s.id });
+		if (!study) continue;
+		const members = await studyServer.listMembers({ db, teamId, studyId: s.id });
+		const rows = gridConvergence(members, (n) => cellSize(study.baseCase, n)).filter((c) => ['overallHoldup', 'levelSwellM', 'aeratedHeightM', 'kLaPerS', 'centrelineLiquidVelocityMS'].includes(c.id));
+		return { list, uncertainty: { studyId: s.id, name: s.name, rows } };
+	}
+	return { list, uncertainty: null };
+}
 
 async function loadCase(event: RequestEvent, teamId: string) {
 	const row = await cases.getCase({ teamId, id: event.params.id });
@@ -40,6 +56,7 @@ export const load: PageServerLoad = async (event) => {
 		canSignOff: hasRole(member.role, 'lead'),
 		signOffs: await signoffs.listSignOffs({ teamId: member.team.id, subjectType: 'case', subjectId: row.id }),
 		comments: await signoffs.listComments({ teamId: member.team.id, subjectType: 'case', subjectId: row.id }),
+		studies: await caseStudies(member.team.id, row.id),
 		queueError: event.url.searchParams.get('queueError'),
 		saved: event.url.searchParams.has('saved')
 	};
