@@ -122,6 +122,12 @@ async function main() {
 	} catch (e) {
 		out.jobs = { unavailable: (e as Error).message };
 	}
+	try {
+		const study = await import('./study.js');
+		out.study = await study.benchStudy();
+	} catch (e) {
+		out.study = { unavailable: (e as Error).message };
+	}
 	console.log(JSON.stringify(out, null, 2));
 }
 

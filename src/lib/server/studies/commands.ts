@@ -37,7 +37,7 @@ export const studyInputSchema = z.object({
 	name: z.string({ error: 'name must be text' }).trim().min(1, { error: 'Give the study a name' }).max(120, { error: 'name must be at most 120 characters' }),
 	spec: studySpecSchema,
 	measurementId: z.union([z.uuid({ error: 'measurementId must be a measurement id (a UUID)' }), z.literal(''), z.null()]).optional()
-});
+}, { error: 'The body must be a JSON object with caseId, name and spec' });
 export type StudyInput = z.infer<typeof studyInputSchema>;
 
 /** zod issues as `{ path, message }` with dotted paths. */
