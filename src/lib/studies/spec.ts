@@ -214,7 +214,9 @@ export function expandStudy(base: CaseDocument, spec: StudySpec): Expansion {
 		if (!issues.length && lists.length === 0) issues.push({ path: 'options', message: 'Tick at least one option' });
 		if (!issues.length) {
 			for (const v of product(lists)) {
-				const label = lists.map(({ key }) => (matrixFamilies[key as MatrixFamily].catalog as Record<string, { label: string }>)[v[key]].label).join(' · ');
+				// the label names the families that vary; a family with one tick is simply set
+				const varying = lists.filter((l) => l.items.length > 1);
+				const label = (varying.length ? varying : lists).map(({ key }) => (matrixFamilies[key as MatrixFamily].catalog as Record<string, { label: string }>)[v[key]].label).join(' · ');
 				rows.push({ label, values: v });
 			}
 			if (rows.length < 2) issues.push({ path: 'options', message: 'A matrix needs at least two combinations: tick a second option' });
