@@ -160,6 +160,36 @@ export const outgoingMail = pgTable(
 	(t) => [index('outgoing_mail_received_idx').on(t.receivedAt)]
 );
 
+export const apiTokenScopeEnum = pgEnum('api_token_scope', ['read', 'role']);
+
+/**
+ * Personal API tokens. The token itself is shown once; only its SHA-256 is stored (a random
+ * 256-bit secret needs no slow hash, and the digest is what a request is looked up by).
+ * `scope` read = viewer rights whatever the member's role; role = exactly the member's role.
+ */
+export const apiTokens = pgTable(
+	'api_tokens',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id')
+			.notNull()
+			.references(() => teams.id, { onDelete: 'cascade' }),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		/** the first characters of the token, to tell tokens apart in lists */
+		prefix: text('prefix').notNull(),
+		tokenHash: text('token_hash').notNull().unique(),
+		scope: apiTokenScopeEnum('scope').notNull().default('read'),
+		expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }),
+		lastUsedAt: timestamp('last_used_at', { withTimezone: true, mode: 'date' }),
+		revokedAt: timestamp('revoked_at', { withTimezone: true, mode: 'date' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('api_tokens_team_user_idx').on(t.teamId, t.userId)]
+);
+
 export const auditLog = pgTable(
 	'audit_log',
 	{
