@@ -8,7 +8,8 @@
  *   test    the same set-up on a clean `twofold_test` database → build → vitest → Playwright,
  *           closing with one line `N passed, N failed`
  *   bench   PostgreSQL + migrate, then `bench/index.ts`
- *   worker  PostgreSQL + migrate, then `worker/index.ts`
+ *   worker  PostgreSQL + migrate, then `worker/index.ts` (with DATABASE_URL set: that database as it
+ *           is, for a worker on another machine than the app)
  *
  * Environment: PORT (app, default 5180), TWOFOLD_PG_PORT, TWOFOLD_PG_DATA (see scripts/pg.mjs),
  * SMTP_PORT (mail catcher for `start`, default 54325), TWOFOLD_TEST_DB (default twofold_test).
@@ -426,9 +427,13 @@ async function commandBench(extraArgs) {
 	return run(npxBin('tsx'), ['bench/index.ts', ...extraArgs], { env: { ...process.env, DATABASE_URL: databaseUrl }, allowFail: true });
 }
 
+/**
+ * With DATABASE_URL set (a worker on another machine than the app), the worker uses that database
+ * as it is: no local cluster, no migration (the app's `npm start` migrates its own database).
+ */
 async function commandWorker(extraArgs) {
 	ensureDependencies();
-	const databaseUrl = await setUpDatabase({ database: 'twofold', fresh: false });
+	const databaseUrl = process.env.DATABASE_URL || (await setUpDatabase({ database: 'twofold', fresh: false }));
 	const smtpPort = process.env.SMTP_PORT ?? '54325';
 	const env = { ...process.env, DATABASE_URL: databaseUrl, SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1', SMTP_PORT: smtpPort };
 	const child = startChild('worker', npxBin('tsx'), ['worker/index.ts', ...extraArgs], env);

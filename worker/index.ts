@@ -5,8 +5,11 @@
  *
  * Environment:
  *   DATABASE_URL                     the app's database (required outside the local default)
- *   TWOFOLD_WORKER_CONCURRENCY       runs worked at once by this process (default: CPU cores);
- *                                    each slot steps its runs on its own thread
+ *   TWOFOLD_WORKER_SLOTS             runs worked at once by this process (default: CPU cores − 1,
+ *                                    at least 1; the older name TWOFOLD_WORKER_CONCURRENCY is still
+ *                                    read); each slot steps its runs on its own thread
+ *   TWOFOLD_WORKER_HOST              host name shown on the Workers page and in the worker id
+ *                                    (default: the machine's host name)
  *   TWOFOLD_WORKER_POLL_S            how often an idle slot asks for a job (default 0.5 s)
  *   TWOFOLD_CHECKPOINT_INTERVAL_S    wall time between checkpoints of a run (default 3 s)
  *   TWOFOLD_STALE_AFTER_S            heartbeat age after which a run counts as orphaned (default 5 s)
@@ -15,8 +18,11 @@
  *                                    changes wall time only, never results. Not for production.
  *   SMTP_HOST, SMTP_PORT, ORIGIN     run-ended e-mail and the link in it
  *
+ * The worker works only the queue of its own solver version (`SOLVE_QUEUE`), and keeps its row in
+ * the `workers` table up to date (worker/registry.ts).
+ *
  * SIGTERM / SIGINT: stop taking jobs, checkpoint every run in progress and hand it back to the
- * queue, then exit.
+ * queue, mark the worker stopped, then exit.
  */
 import os from 'node:os';
 import { randomBytes } from 'node:crypto';
@@ -26,6 +32,8 @@ import { createBoss, ensureQueue, JOB_CHANNEL, SOLVE_QUEUE, type SolveJobData } 
 import { solveJob, type ActiveRun, type SolveContext } from './jobs/solve.js';
 import { startSweeper } from './sweeper.js';
 import { createSolverPool } from './jobs/solver-pool.js';
+import { startRegistry } from './registry.js';
+import { SOLVER_VERSION } from '../solver/version.js';
 
 function numberFromEnv(name: string, fallback: number, min: number): number {
 	const raw = process.env[name];
@@ -67,12 +75,16 @@ function listenForJobs(o: { url: string; log: (m: string) => void; onJob: () => 
 
 async function main() {
 	const url = process.env.DATABASE_URL ?? DEFAULT_DATABASE_URL;
-	const concurrency = Math.floor(numberFromEnv('TWOFOLD_WORKER_CONCURRENCY', os.availableParallelism(), 1));
+	// one core is left to the machine's other work (the app, PostgreSQL) unless told otherwise
+	const defaultSlots = Math.max(1, os.availableParallelism() - 1);
+	const slotsVar = process.env.TWOFOLD_WORKER_SLOTS ? 'TWOFOLD_WORKER_SLOTS' : 'TWOFOLD_WORKER_CONCURRENCY';
+	const concurrency = Math.floor(numberFromEnv(slotsVar, defaultSlots, 1));
 	const pollS = numberFromEnv('TWOFOLD_WORKER_POLL_S', 0.5, 0.5);
 	const checkpointIntervalS = numberFromEnv('TWOFOLD_CHECKPOINT_INTERVAL_S', 3, 0.1);
 	const staleAfterS = numberFromEnv('TWOFOLD_STALE_AFTER_S', 5, 1);
 	const stepPauseMs = numberFromEnv('TWOFOLD_WORKER_STEP_PAUSE_MS', 0, 0);
-	const workerId = `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
+	const host = process.env.TWOFOLD_WORKER_HOST || os.hostname();
+	const workerId = `${host}:${process.pid}:${randomBytes(3).toString('hex')}`;
 	const log = (message: string) => console.log(`[worker ${workerId}] ${message}`);
 
 	// one connection per run slot for its writes, plus a few for claims, sweeps and mail
@@ -85,7 +97,25 @@ async function main() {
 	const pool = createSolverPool(concurrency);
 	const active = new Set<ActiveRun>();
 	let stopping = false;
-	const ctx: SolveContext = { handle, boss, workerId, flushIntervalMs: 100, checkpointIntervalS, stepPauseMs, pool, active, isStopping: () => stopping, log };
+	const registry = await startRegistry({
+		handle,
+		worker: { id: workerId, host, pid: process.pid, slots: concurrency, solverVersion: SOLVER_VERSION },
+		activeRuns: () => active.size,
+		log
+	});
+	const ctx: SolveContext = {
+		handle,
+		boss,
+		workerId,
+		flushIntervalMs: 100,
+		checkpointIntervalS,
+		stepPauseMs,
+		pool,
+		active,
+		isStopping: () => stopping,
+		onRunEnded: () => registry.runEnded(),
+		log
+	};
 
 	// pg-boss 10 works one batch per `work` call: `concurrency` calls of batch size 1 = that many runs at once
 	const workIds: string[] = [];
@@ -97,7 +127,7 @@ async function main() {
 	}
 	const wake = listenForJobs({ url, log, onJob: () => workIds.forEach((id) => boss.notifyWorker(id)) });
 	const sweeper = startSweeper({ handle, boss, staleAfterS, intervalMs: 1000, maxAttempts: 5, log });
-	log(`working ${SOLVE_QUEUE} with ${concurrency} slot(s)`);
+	log(`working ${SOLVE_QUEUE} with ${concurrency} slot(s), solver ${SOLVER_VERSION}`);
 
 	const shutdown = async (signal: string) => {
 		if (stopping) return;
@@ -113,6 +143,7 @@ async function main() {
 			// waits for the handlers, which now checkpoint and release their runs
 			await boss.stop({ graceful: true, wait: true, timeout: timeoutMs });
 			await pool.close();
+			await registry.stop();
 			await handle.close();
 			log('stopped');
 			process.exit(0);

@@ -48,6 +48,8 @@ export interface SolveContext {
 	active: Set<ActiveRun>;
 	/** true once the process is stopping: a run claimed now is checkpointed and released at once */
 	isStopping: () => boolean;
+	/** called once a run this process worked has ended (its final status committed) */
+	onRunEnded?: () => void;
 	log: (message: string) => void;
 }
 
@@ -108,6 +110,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 	});
 	if (!claimed) return;
 	attempt = claimed.attempts;
+	const requeue = { solverVersion: claimed.solverVersion, studyIndex: claimed.studyIndex };
 	const caseDoc: CaseDocument = claimed.caseDocument;
 
 	const [cpRow] = await ctx.handle.db.select({ data: checkpoints.data }).from(checkpoints).where(eq(checkpoints.runId, runId));
@@ -183,6 +186,12 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 		});
 	};
 
+	/** After the final status committed: count the run for the worker registry, then the e-mail. */
+	const afterEnd = async () => {
+		ctx.onRunEnded?.();
+		await mailQuietly(ctx, runId);
+	};
+
 	const active: ActiveRun = { runId, requestShutdown: () => stop('shutdown', Control.checkpointAndStop) };
 	ctx.active.add(active);
 	if (ctx.isStopping()) active.requestShutdown();
@@ -249,7 +258,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 								errorMessage: m.status === 'failed' ? (m.message ?? 'The solver reported a failure without a message') : null
 							});
 						});
-						await mailQuietly(ctx, runId);
+						await afterEnd();
 					});
 					end();
 					break;
@@ -267,7 +276,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 							await writeProgress(tx);
 							await endRun(tx, 'failed', { errorMessage: `The solver stopped with an error at ${describeTime(m)}: ${m.message}` });
 						});
-						await mailQuietly(ctx, runId);
+						await afterEnd();
 					});
 					end();
 					break;
@@ -326,7 +335,7 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 					await writeProgress(tx);
 					await endRun(tx, 'cancelled', { errorMessage: `Cancelled at ${describeTime(m)}` });
 				});
-				await mailQuietly(ctx, runId);
+				await afterEnd();
 				return;
 			case 'wall-time':
 				await withTransaction(pool, async (tx) => {
@@ -337,13 +346,13 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 							`(end time ${caseDoc.numerics.endTimeS} s). Raise the limit, coarsen the grid or shorten the end time.`
 					});
 				});
-				await mailQuietly(ctx, runId);
+				await afterEnd();
 				return;
 			case 'shutdown':
 				// the thread posted its checkpoint just before `stopped`; hand the run to a new job
 				await withTransaction(pool, async (tx) => {
 					await writeProgress(tx);
-					const jobId = await sendSolveJob({ boss: ctx.boss, client: tx.client, runId, caseDoc });
+					const jobId = await sendSolveJob({ boss: ctx.boss, client: tx.client, runId, caseDoc, ...requeue });
 					const [r] = await tx.db
 						.update(runs)
 						.set({ status: 'queued', jobId, workerId: null, heartbeatAt: null })

@@ -20,6 +20,21 @@ export const inviteForm = z.object({
 	role: z.enum(ROLES as [Role, ...Role[]], { message: 'Choose a role.' })
 });
 
+export const MAX_STUDY_RUNS_LIMIT = 1000;
+
+/** The admin's cap on the member runs of one study (`teams.max_study_runs`). */
+export const studyRunsForm = z.object({
+	maxStudyRuns: z.coerce
+		.number({ message: 'Enter a whole number of runs.' })
+		.int('Enter a whole number of runs.')
+		.min(1, 'At least 1 run.')
+		.max(MAX_STUDY_RUNS_LIMIT, `At most ${MAX_STUDY_RUNS_LIMIT} runs.`)
+});
+
+export async function setMaxStudyRuns(options: { teamId: string; maxStudyRuns: number }): Promise<void> {
+	await db.update(teams).set({ maxStudyRuns: options.maxStudyRuns }).where(eq(teams.id, options.teamId));
+}
+
 export async function listMembers(teamId: string) {
 	return db
 		.select({ userId: users.id, email: users.email, name: users.name, role: memberships.role, since: memberships.createdAt })

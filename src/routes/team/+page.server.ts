@@ -2,7 +2,18 @@ import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { requireMember } from '$lib/server/guard';
 import { hasRole, isRole } from '$lib/server/roles';
-import { MailNotSent, inviteForm, inviteMember, listMembers, listOpenInvitations, removeMember, revokeInvitation, setRole } from '$lib/server/team';
+import {
+	MailNotSent,
+	inviteForm,
+	inviteMember,
+	listMembers,
+	listOpenInvitations,
+	removeMember,
+	revokeInvitation,
+	setMaxStudyRuns,
+	setRole,
+	studyRunsForm
+} from '$lib/server/team';
 import { parseForm } from '$lib/server/forms';
 import { audit } from '$lib/server/audit';
 import { db } from '$lib/server/db/app';
@@ -17,7 +28,8 @@ export const load: PageServerLoad = async (event) => {
 		members: await listMembers(team.id),
 		invitations: isAdmin ? await listOpenInvitations(team.id) : [],
 		isAdmin,
-		myUserId: user.id
+		myUserId: user.id,
+		maxStudyRuns: team.maxStudyRuns
 	};
 };
 
@@ -61,6 +73,20 @@ export const actions: Actions = {
 		if (problem) return fail(400, { memberError: problem });
 		await audit(db, { teamId: team.id, userId: user.id, action: 'member.remove', subject: userId });
 		return { removed: true };
+	},
+	studyRuns: async (event) => {
+		const { team, user } = await requireMember(event, 'admin');
+		const { data, failure } = parseForm(studyRunsForm, await event.request.formData());
+		if (!data) return failure;
+		await setMaxStudyRuns({ teamId: team.id, maxStudyRuns: data.maxStudyRuns });
+		await audit(db, {
+			teamId: team.id,
+			userId: user.id,
+			action: 'team.maxStudyRuns',
+			subject: team.id,
+			detail: { from: team.maxStudyRuns, to: data.maxStudyRuns }
+		});
+		return { studyRunsSaved: data.maxStudyRuns };
 	},
 	revoke: async (event) => {
 		const { team, user } = await requireMember(event, 'admin');
