@@ -5,16 +5,13 @@
  * Reference for "identical results": the same case driven in this process by the solver library
  * itself (`createSimulation` + `step()` to the end), which is what an uninterrupted run computes.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { startApp, type RunningApp } from '../helpers/app.js';
 import { openTestDb } from '../helpers/db.js';
-import { testDatabaseUrl } from '../helpers/env.js';
 import { TestClient, signedInClient } from '../helpers/http.js';
 import { waitForMail } from '../helpers/mail.js';
+import { startWorker as startWorkerProcess, waitFor, type WorkerProcess } from '../helpers/workers.js';
 import { createTestTeam, type TestTeam } from '../helpers/team.js';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { cases, checkpoints, columns, memberships, outgoingMail, residuals, runs, snapshots, teams } from '../../src/lib/server/db/schema.js';
@@ -23,7 +20,6 @@ import { storesResidualStep } from '../../worker/jobs/solve-protocol.js';
 import { createSimulation, defaultCase, type CaseDocument } from '../../solver/index.js';
 import type { Residuals, Results } from '../../solver/types.js';
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
 // ------------------------------------------------------------------ cases used here
 
@@ -76,66 +72,13 @@ function solveHere(caseDoc: CaseDocument): { results: Results; residualsByStep: 
 
 // ------------------------------------------------------------------ worker processes
 
-interface WorkerProcess {
-	child: ChildProcess;
-	output(): string;
-	/** SIGTERM and wait for the exit code */
-	stop(): Promise<number | null>;
-	kill(): Promise<void>;
-}
-
 const workers: WorkerProcess[] = [];
 
-async function startWorker(app: RunningApp, env: Record<string, string> = {}): Promise<WorkerProcess> {
-	let log = '';
-	// node itself with tsx's loader, not the tsx CLI: a SIGKILL must reach the worker, not a wrapper
-	const child = spawn(process.execPath, ['--import', 'tsx', 'worker/index.ts'], {
-		cwd: ROOT,
-		env: {
-			...process.env,
-			DATABASE_URL: testDatabaseUrl(),
-			SMTP_HOST: '127.0.0.1',
-			SMTP_PORT: String(app.smtpPort),
-			ORIGIN: app.baseUrl,
-			TWOFOLD_WORKER_CONCURRENCY: '1',
-			TWOFOLD_WORKER_POLL_S: '0.5',
-			TWOFOLD_CHECKPOINT_INTERVAL_S: '0.5',
-			TWOFOLD_STALE_AFTER_S: '4',
-			...env
-		},
-		stdio: ['ignore', 'pipe', 'pipe']
-	});
-	child.stdout?.on('data', (d) => (log += d));
-	child.stderr?.on('data', (d) => (log += d));
-	const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
-	const w: WorkerProcess = {
-		child,
-		output: () => log,
-		async stop() {
-			if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
-			return exited;
-		},
-		async kill() {
-			if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
-			await exited;
-		}
-	};
-	workers.push(w);
-	await waitFor(() => log.includes('working solve-run'), { timeoutMs: 30_000, what: `worker start:\n${log}` });
-	return w;
+function startWorker(app: RunningApp, env: Record<string, string> = {}): Promise<WorkerProcess> {
+	return startWorkerProcess(app, env, workers);
 }
 
 // ------------------------------------------------------------------ small helpers
-
-async function waitFor<T>(probe: () => T | Promise<T>, o: { timeoutMs?: number; what: string; everyMs?: number }): Promise<NonNullable<T>> {
-	const deadline = Date.now() + (o.timeoutMs ?? 30_000);
-	for (;;) {
-		const v = await probe();
-		if (v) return v as NonNullable<T>;
-		if (Date.now() > deadline) throw new Error(`timed out waiting for ${o.what}`);
-		await new Promise((r) => setTimeout(r, o.everyMs ?? 50));
-	}
-}
 
 interface SseEvent {
 	id: string;
@@ -243,7 +186,7 @@ beforeAll(async () => {
 	handle = await openTestDb();
 	// runs left queued or running by earlier test files (which had no worker) would be worked by
 	// the workers started here and skew what is measured: end them first, jobs included
-	await handle.pool.query(`update pgboss.job set state = 'cancelled', completed_on = now() where name = 'solve-run' and state < 'completed'`).catch(() => {});
+	await handle.pool.query(`update pgboss.job set state = 'cancelled', completed_on = now() where name like 'solve-run%' and state < 'completed'`).catch(() => {});
 	await handle.db
 		.update(runs)
 		.set({ status: 'cancelled', finishedAt: new Date(), errorMessage: 'Left over by an earlier test file' })
@@ -542,7 +485,7 @@ describe('runs as queued jobs', () => {
 		await waitFor(
 			async () => {
 				const { rows: r } = await handle.pool.query(
-					`select count(*)::int as jobs from pgboss.job where name = 'solve-run' and data->>'runId' = any($1) and state = 'completed'`,
+					`select count(*)::int as jobs from pgboss.job where name like 'solve-run%' and data->>'runId' = any($1) and state = 'completed'`,
 					[ids]
 				);
 				return r[0].jobs === 20;

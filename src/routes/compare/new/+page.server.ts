@@ -23,6 +23,11 @@ export const load: PageServerLoad = async (event) => {
 			queuedAt: r.queuedAt
 		})),
 		limits: { min: comparisons.MIN_RUNS, max: comparisons.MAX_RUNS },
+		// `?runs=<id>,<id>` (a study's members) arrive ticked, as far as they are comparable runs of this column
+		preselected: (event.url.searchParams.get('runs') ?? '')
+			.split(',')
+			.filter((id) => runs.some((r) => r.id === id))
+			.slice(0, comparisons.MAX_RUNS),
 		measurements: await comparisons.listOverlayMeasurements({ teamId: team.id, columnId: column.id })
 	};
 };
