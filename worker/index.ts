@@ -120,8 +120,12 @@ async function main() {
 	// pg-boss 10 works one batch per `work` call: `concurrency` calls of batch size 1 = that many runs at once
 	const workIds: string[] = [];
 	for (let i = 0; i < concurrency; i++) {
+		const slot = i;
 		const id = await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS }, async ([job]) => {
 			await solveJob(ctx, job);
+			// pg-boss otherwise waits out the rest of the poll interval before the next fetch; a slot
+			// that just finished a job asks again at once (an empty queue then waits the interval)
+			if (!stopping) boss.notifyWorker(workIds[slot]);
 		});
 		workIds.push(id);
 	}
