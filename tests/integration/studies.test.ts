@@ -320,6 +320,13 @@ describe('closure matrix and grid study on real runs', () => {
 		const page = await analystA.get(`/studies/${id}`);
 		expect(page.status).toBe(200);
 		expect(await page.text()).toContain('data-testid="band-overallHoldup-min"');
+		// signed off like a comparison: a lead may, an analyst may not
+		expect((await analystA.post(`/studies/${id}?/signOff`, { verdict: 'approved-basis', comment: '' }, { accept: 'application/json' })).status).toBe(403);
+		const lead = await signedInClient(app.baseUrl, teamA.members.lead);
+		const signed = await lead.post(`/studies/${id}?/signOff`, { verdict: 'approved-basis', comment: 'Spread acceptable for the basis' }, { accept: 'application/json' });
+		expect(signed.status).toBe(200);
+		const verdicts = await handle.pool.query(`select verdict, comment from sign_offs where subject_type = 'study' and subject_id = $1`, [id]);
+		expect(verdicts.rows).toEqual([{ verdict: 'approved-basis', comment: 'Spread acceptable for the basis' }]);
 		await stopAll();
 	}, 240_000);
 
