@@ -488,3 +488,20 @@ export const comments = pgTable(
 	},
 	(t) => [index('comments_subject_idx').on(t.teamId, t.subjectType, t.subjectId, t.createdAt)]
 );
+
+/**
+ * The solver's verification cases computed by a worker, one row per solver version (recomputed
+ * when the version changes). `results` is the list of cases with their errors, observed orders
+ * and chart data (src/lib/server/verification); `progress` 0–1 while computing.
+ */
+export const verificationResults = pgTable('verification_results', {
+	solverVersion: text('solver_version').primaryKey(),
+	status: text('status').$type<'queued' | 'computing' | 'done' | 'failed'>().notNull().default('queued'),
+	progress: doublePrecision('progress').notNull().default(0),
+	results: jsonb('results').$type<unknown[]>(),
+	errorMessage: text('error_message'),
+	workerId: text('worker_id'),
+	queuedAt: timestamp('queued_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+	startedAt: timestamp('started_at', { withTimezone: true, mode: 'date' }),
+	finishedAt: timestamp('finished_at', { withTimezone: true, mode: 'date' })
+});
