@@ -115,8 +115,9 @@ async function setUpDatabase({ database, fresh }) {
 	return url;
 }
 
-function seed(env) {
-	run(npxBin('tsx'), ['src/lib/server/seed.ts'], { env });
+/** The demo team (always) and, with `work`, its finished demo work (`npm start` only: tests ask for it themselves). */
+function seed(env, { work = false } = {}) {
+	run(npxBin('tsx'), ['src/lib/server/seed.ts', ...(work ? ['--with-work'] : [])], { env });
 }
 
 // ------------------------------------------------------------------ build
@@ -265,7 +266,7 @@ async function commandStart() {
 		SMTP_HOST: '127.0.0.1',
 		SMTP_PORT: String(smtpPort)
 	};
-	seed(env);
+	seed(env, { work: true });
 	if (await portFree(smtpPort)) {
 		startChild('mail catcher', npxBin('tsx'), ['src/lib/server/mail/catcher.ts'], env);
 		await waitForPort(smtpPort, 20_000);

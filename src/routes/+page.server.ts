@@ -1,10 +1,11 @@
-import { and, desc, eq, inArray, notInArray } from 'drizzle-orm';
+import { and, desc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import type { PageServerLoad } from './$types';
 import { requireMember } from '$lib/server/guard';
 import { db } from '$lib/server/db/app';
 import { columns, runs, signOffs } from '$lib/server/db/schema';
 import { countColumns } from '$lib/server/columns';
 import { homeAdditions } from '$lib/server/home';
+import { listStudies } from '$lib/server/studies';
 
 /** The team home: runs in progress, recent results, items awaiting sign-off. */
 export const load: PageServerLoad = async (event) => {
@@ -16,7 +17,8 @@ export const load: PageServerLoad = async (event) => {
 		finishedAt: runs.finishedAt,
 		simulatedTimeS: runs.simulatedTimeS,
 		steps: runs.steps,
-		columnTag: columns.tag
+		columnTag: columns.tag,
+		caseName: sql<string>`${runs.caseDocument}->>'name'`
 	};
 	const inProgress = await db
 		.select(runFields)
@@ -49,6 +51,7 @@ export const load: PageServerLoad = async (event) => {
 		inProgress,
 		recent,
 		awaiting: verdicts.filter((v) => v.verdict === 'changes-requested'),
+		studies: await listStudies({ db, teamId: team.id, limit: 5 }),
 		...(await homeAdditions({ teamId: team.id }))
 	};
 };
