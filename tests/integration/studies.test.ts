@@ -15,6 +15,8 @@ import { startWorker, waitFor, type WorkerProcess } from '../helpers/workers.js'
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { cases, columns, runs, studies, teams } from '../../src/lib/server/db/schema.js';
 import { listMembers } from '../../src/lib/server/studies/reads.js';
+import { createBoss, sendSolveJob, solveQueue } from '../../src/lib/server/runs/jobs.js';
+import { testDatabaseUrl } from '../helpers/env.js';
 import { designBand, gridConvergence } from '../../src/lib/studies/results.js';
 import { cellSize } from '../../src/lib/studies/spec.js';
 import { defaultCase, runToEnd, type CaseDocument } from '../../solver/index.js';
@@ -287,6 +289,45 @@ describe('cancelling, re-running and fair share', () => {
 		await stopAll();
 		await endLeftovers();
 	}, 180_000);
+});
+
+describe('solver versions', () => {
+	it('a worker never takes a run frozen with another solver version; the run waits in that version\'s queue', async () => {
+		await endLeftovers();
+		await startWorker(app, { TWOFOLD_WORKER_HOST: 'machine-a' }, started);
+		const boss = createBoss({ url: testDatabaseUrl(), role: 'app' });
+		await boss.start();
+		try {
+			const caseDoc = smallCase('other version');
+			const caseId = await storeCase(teamA, columnA, caseDoc);
+			const [run] = await handle.db
+				.insert(runs)
+				.values({ teamId: teamA.team.id, columnId: columnA, caseId, caseDocument: caseDoc, solverVersion: '0.9.0', status: 'queued' })
+				.returning();
+			const client = await handle.pool.connect();
+			try {
+				await client.query('BEGIN');
+				const jobId = await sendSolveJob({ boss, client, runId: run.id, caseDoc, solverVersion: '0.9.0' });
+				await client.query('update runs set job_id = $1 where id = $2', [jobId, run.id]);
+				await client.query('COMMIT');
+			} finally {
+				client.release();
+			}
+			// a run of this version queued after it is worked at once; the 0.9.0 run is not touched
+			const r = await analystA.postJson('/runs', { caseId: await storeCase(teamA, columnA, smallCase('this version')) });
+			const mine = ((await r.json()) as any).run.id as string;
+			await waitFor(async () => ENDED.includes((await handle.db.select().from(runs).where(eq(runs.id, mine)))[0].status), { timeoutMs: 30_000, what: 'the current-version run' });
+			const [other] = await handle.db.select().from(runs).where(eq(runs.id, run.id));
+			expect(other.status).toBe('queued');
+			expect(other.attempts).toBe(0);
+			const job = await handle.pool.query(`select name, state from pgboss.job where id = $1`, [other.jobId]);
+			expect(job.rows[0]).toEqual({ name: solveQueue('0.9.0'), state: 'created' });
+		} finally {
+			await boss.stop({ graceful: false, wait: false }).catch(() => {});
+			await stopAll();
+			await endLeftovers();
+		}
+	}, 120_000);
 });
 
 describe('closure matrix and grid study on real runs', () => {
