@@ -283,7 +283,8 @@ async function commandStart() {
 	});
 	await waitForHttp(`${origin}/signin`, 30_000);
 	if (fs.existsSync(path.join(ROOT, 'worker', 'index.ts'))) {
-		startChild('worker', npxBin('tsx'), ['worker/index.ts'], env);
+		// the worker queues the solver's verification of its version when none is cached (the Verification page)
+		startChild('worker', npxBin('tsx'), ['worker/index.ts'], { ...env, TWOFOLD_VERIFY_AT_START: '1' });
 	} else {
 		say('no worker/index.ts yet: runs will wait in the queue');
 	}

@@ -59,6 +59,15 @@ export type BubbleClassModel = (typeof bubbleClassModels)[number];
 export const transitionCorrelations = ['reilly', 'fixed'] as const;
 export const largeBubbleSizings = ['krishna', 'fixed'] as const;
 export const largeBubbleDrags = ['krishna-swarm', 'spherical-cap'] as const;
+/** none, a batch liquid from a chosen concentration, a liquid fed through the column, or its steady state */
+export const transferModes = ['none', 'batch', 'continuous', 'steady'] as const;
+export type TransferMode = (typeof transferModes)[number];
+export const transferSolutes = ['oxygen', 'carbon-dioxide'] as const;
+export const liquidDispersionModels = ['deckwer', 'baird-rice', 'fixed'] as const;
+/** liquid-side coefficient k_L: mobile (Higbie penetration) or rigid, contaminated interface (Frössling) */
+export const massTransferCoefficientModels = ['higbie', 'frossling'] as const;
+/** gas saturated with water vapour (partial pressure y (p − p_w)), or dry (y p) */
+export const gasHumidities = ['saturated', 'dry'] as const;
 
 export const geometrySchema = z
 	.object({
@@ -154,6 +163,36 @@ export const numericsSchema = z
 	})
 	.prefault({});
 
+/**
+ * Mass and heat transfer along the column (height profile only). The default `none` leaves every result of the
+ * hydrodynamics as it was; a document without this section reads as `none`.
+ */
+export const transferSchema = z
+	.object({
+		mode: z.enum(transferModes).default('none'),
+		solute: z.enum(transferSolutes).default('oxygen'),
+		initialConcentrationKgM3: quantity(
+			{ label: 'Initial dissolved concentration', unit: 'kg/m³', help: 'in the liquid at the start (0 for a deoxygenated re-aeration test; 1 mg/L = 0.001 kg/m³)' },
+			0,
+			10,
+			0
+		),
+		inletConcentrationKgM3: quantity({ label: 'Dissolved concentration of the liquid fed', unit: 'kg/m³', help: 'continuous and steady modes with a liquid flow' }, 0, 10, 0),
+		inletGasMoleFraction: quantity({ label: 'Solute mole fraction in the gas fed', unit: '1', help: '0.2095 for oxygen in air, 0 for stripping into clean gas' }, 0, 1, 0.2095),
+		gasHumidity: z.enum(gasHumidities).default('saturated'),
+		dispersion: z.enum(liquidDispersionModels).default('deckwer'),
+		dispersionM2S: quantity({ label: 'Liquid axial dispersion coefficient', unit: 'm²/s', help: 'used when the dispersion is entered' }, 0, 10, 0.01),
+		massTransferCoefficient: z.enum(massTransferCoefficientModels).default('higbie'),
+		liquidHeatCapacityJKgK: quantity({ label: 'Liquid heat capacity', unit: 'J/(kg·K)', help: 'for the wall heat-transfer coefficient (water at 20 °C: 4182)' }, 500, 10000, 4182),
+		liquidThermalConductivityWMK: quantity(
+			{ label: 'Liquid thermal conductivity', unit: 'W/(m·K)', help: 'for the wall heat-transfer coefficient (water at 20 °C: 0.598)' },
+			0.01,
+			5,
+			0.598
+		)
+	})
+	.prefault({});
+
 export const caseSchema = z
 	.object({
 		schemaVersion: z.literal(SCHEMA_VERSION, { error: `schemaVersion must be ${SCHEMA_VERSION}` }),
@@ -164,7 +203,8 @@ export const caseSchema = z
 		sparging: spargingSchema,
 		bubbles: bubblesSchema,
 		closures: closuresSchema,
-		numerics: numericsSchema
+		numerics: numericsSchema,
+		transfer: transferSchema
 	})
 	.superRefine((c, ctx) => {
 		if (c.kind === 'height-profile' && c.geometry.clearLiquidLevelM >= c.geometry.heightM) {
@@ -174,6 +214,12 @@ export const caseSchema = z
 				message: `Clear-liquid level must be below the column height (${c.geometry.heightM} m)`
 			});
 		}
+		const mode = c.transfer.mode;
+		const jl = c.sparging.superficialLiquidVelocityMS;
+		const transferIssue = (message: string) => ctx.addIssue({ code: 'custom', path: ['transfer', 'mode'], message });
+		if (mode !== 'none' && c.kind === 'cross-section') transferIssue('Mass transfer is computed by the height-profile model only');
+		else if (mode === 'batch' && jl !== 0) transferIssue(`A batch liquid needs a superficial liquid velocity of 0 (the case has ${jl} m/s)`);
+		else if (mode === 'continuous' && jl === 0) transferIssue('A continuous liquid needs a superficial liquid velocity other than 0 (positive co-current, negative counter-current)');
 		if (c.numerics.snapshotIntervalS > c.numerics.endTimeS) {
 			ctx.addIssue({
 				code: 'custom',

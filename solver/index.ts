@@ -14,6 +14,8 @@ export { closureCatalog, type CatalogEntry } from './closures/catalog.js';
 export { residualNames as heightResidualNames } from './height/simulation.js';
 export { CROSS_SECTION_RESIDUALS as crossSectionResidualNames } from './cross-section/index.js';
 export { gridConvergenceIndex, type GridConvergence } from './gci.js';
+export { runVerification, type VerificationResult, type VerificationProgress } from './verification/index.js';
+export { designCatalog, residualCatalog, type QuantityEntry } from './catalog/design.js';
 
 export { SOLVER_VERSION } from './version.js';
 

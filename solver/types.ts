@@ -46,6 +46,12 @@ export interface DesignNumber {
 	label: string;
 }
 
+/** A time series of a run, SI: the liquid-average dissolved concentration of a batch transfer run. */
+export interface ConcentrationSeries {
+	timeS: number[];
+	concentrationKgM3: number[];
+}
+
 export interface Results {
 	kind: CaseKind;
 	status: RunStatus;
@@ -56,6 +62,8 @@ export interface Results {
 	design: Record<string, DesignNumber>;
 	/** final profiles, as in `snapshot()` */
 	profiles: Snapshot;
+	/** time series keyed by a stable id (e.g. `dissolvedOxygen` of a batch transfer run), when the run has any */
+	series?: Record<string, ConcentrationSeries>;
 }
 
 /** An opaque, serialisable (msgpackr-encodable) copy of everything needed to continue bit-identically. */

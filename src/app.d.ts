@@ -1,5 +1,6 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
 import type { Member, SignedInUser } from '$lib/server/guard';
+import type { ApiTokenInfo } from '$lib/server/api/tokens';
 
 declare global {
 	namespace App {
@@ -8,8 +9,14 @@ declare global {
 			user: SignedInUser | null | undefined;
 			/** filled lazily by `currentMember` / `requireMember` */
 			member: Member | null | undefined;
+			/** the API token the request was authenticated with (set by `tokenHandle`), else undefined */
+			apiToken?: ApiTokenInfo;
 		}
-		// interface Error {}
+		/** `message` for pages; `error` is the uniform error body of the JSON endpoints and the API */
+		interface Error {
+			message: string;
+			error?: { code: string; message: string; issues: { path: string; message: string }[] };
+		}
 		// interface PageData {}
 		// interface PageState {}
 		// interface Platform {}

@@ -17,6 +17,9 @@
  *                                    tests and demos of crash, cancel and wall-time handling; it
  *                                    changes wall time only, never results. Not for production.
  *   SMTP_HOST, SMTP_PORT, ORIGIN     run-ended e-mail and the link in it
+ *   TWOFOLD_VERIFY_AT_START          1: queue the solver's verification of this version at start when
+ *                                    none is cached yet (`npm start` sets it); the worker computes
+ *                                    verifications of its version either way (worker/jobs/verify.ts)
  *
  * The worker works only the queue of its own solver version (`SOLVE_QUEUE`), and keeps its row in
  * the `workers` table up to date (worker/registry.ts).
@@ -34,6 +37,8 @@ import { startSweeper } from './sweeper.js';
 import { createSolverPool } from './jobs/solver-pool.js';
 import { startRegistry } from './registry.js';
 import { SOLVER_VERSION } from '../solver/version.js';
+import { startVerifyWork } from './jobs/verify.js';
+import { verificationVersion } from '../src/lib/server/verification/shared.js';
 
 function numberFromEnv(name: string, fallback: number, min: number): number {
 	const raw = process.env[name];
@@ -121,7 +126,8 @@ async function main() {
 	const workIds: string[] = [];
 	for (let i = 0; i < concurrency; i++) {
 		const slot = i;
-		const id = await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS }, async ([job]) => {
+		// with its retry count, so that the last try of a run whose writes keep failing ends it (solve.ts)
+		const id = await boss.work<SolveJobData>(SOLVE_QUEUE, { batchSize: 1, pollingIntervalSeconds: pollS, includeMetadata: true }, async ([job]) => {
 			await solveJob(ctx, job);
 			// pg-boss otherwise waits out the rest of the poll interval before the next fetch; a slot
 			// that just finished a job asks again at once (an empty queue then waits the interval)
@@ -129,7 +135,9 @@ async function main() {
 		});
 		workIds.push(id);
 	}
-	const wake = listenForJobs({ url, log, onJob: () => workIds.forEach((id) => boss.notifyWorker(id)) });
+	// the verification page's results of this solver version: one at a time, on a thread of its own, never on a run slot
+	const verify = await startVerifyWork({ boss, handle, workerId, solverVersion: verificationVersion(), pollingIntervalSeconds: Math.max(pollS, 2), atStart: process.env.TWOFOLD_VERIFY_AT_START === '1', log });
+	const wake = listenForJobs({ url, log, onJob: () => (workIds.forEach((id) => boss.notifyWorker(id)), verify.wake()) });
 	const sweeper = startSweeper({ handle, boss, staleAfterS, intervalMs: 1000, maxAttempts: 5, log });
 	log(`working ${SOLVE_QUEUE} with ${concurrency} slot(s), solver ${SOLVER_VERSION}`);
 
@@ -142,6 +150,7 @@ async function main() {
 		force.unref();
 		try {
 			for (const run of active) run.requestShutdown();
+			verify.stop();
 			await wake.close();
 			await sweeper.stop();
 			// waits for the handlers, which now checkpoint and release their runs

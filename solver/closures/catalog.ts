@@ -16,7 +16,10 @@ import {
 	turbulentDispersionModels,
 	virtualMassModels,
 	wallFrictionModels,
-	wallLubricationModels
+	wallLubricationModels,
+	liquidDispersionModels,
+	massTransferCoefficientModels,
+	transferSolutes
 } from '../case.js';
 
 export interface CatalogEntry {
@@ -117,6 +120,26 @@ export const largeBubbleDragCatalog: Catalog<typeof largeBubbleDrags> = {
 		source: 'R. Krishna, M. I. Urseanu, J. M. van Baten, J. Ellenberger (1999), Chem. Eng. Sci. 54, 171'
 	},
 	'spherical-cap': { label: 'Single spherical cap', models: 'C_D = 8/3, the rise velocity of one cap bubble (no swarm acceleration)', source: 'R. M. Davies, G. I. Taylor (1950), Proc. R. Soc. Lond. A 200, 375' }
+};
+
+export const transferDispersionCatalog: Catalog<typeof liquidDispersionModels> = {
+	deckwer: { label: 'Deckwer et al.', models: 'liquid axial dispersion D_L = 0.678 D^1.4 U_G^0.3 (SI; 2.7 D^1.4 U_G^0.3 in cgs)', source: 'W.-D. Deckwer, R. Burckhart, G. Zoll (1974), Chem. Eng. Sci. 29, 2177' },
+	'baird-rice': { label: 'Baird & Rice', models: 'liquid axial dispersion from isotropic turbulence, D_L = 0.35 D^(4/3) (g U_G)^(1/3)', source: 'M. H. I. Baird, R. G. Rice (1975), Chem. Eng. J. 9, 171' },
+	fixed: { label: 'Entered', models: 'the liquid axial dispersion coefficient entered in the case (e.g. from a tracer test)', source: '—' }
+};
+
+export const massTransferCoefficientCatalog: Catalog<typeof massTransferCoefficientModels> = {
+	higbie: { label: 'Higbie penetration', models: 'mobile interface: k_L = 2 √(D u_r/(π d)), contact time d/u_r', source: 'R. Higbie (1935), Trans. AIChE 31, 365' },
+	frossling: {
+		label: 'Frössling (rigid interface)',
+		models: 'rigid or contaminated interface, as small bubbles in tap water: Sh = 2 + 0.552 Re^½ Sc^⅓',
+		source: 'N. Frössling (1938), Gerlands Beitr. Geophys. 52'
+	}
+};
+
+export const transferSoluteCatalog: Catalog<typeof transferSolutes> = {
+	oxygen: { label: 'Oxygen', models: 'solubility from the Benson–Krause saturation with water-saturated air, Henry’s law at the local pressure', source: 'B. B. Benson, D. Krause (1984), Limnol. Oceanogr. 29, 620' },
+	'carbon-dioxide': { label: 'Carbon dioxide', models: 'Henry’s law, 3.3e-4 mol/(m³ Pa) at 25 °C with d ln H/d(1/T) = 2400 K, physical solubility only (no carbonate equilibria)', source: 'R. Sander (2023), Atmos. Chem. Phys. 23, 10901' }
 };
 
 /** The whole catalogue keyed by the case field it describes (`closures.drag`, …). */

@@ -6,3 +6,6 @@ export * from './drift-flux.js';
 export * from './regime.js';
 export * from './terminal-velocity.js';
 export * from './churn.js';
+export * from './axial-dispersion.js';
+export * from './heat-transfer.js';
+export * from './solubility.js';

@@ -23,3 +23,14 @@ export function akitaYoshidaKLa(o: ColumnInput & { holdup: number; diffusivityM2
 	const rhs = 0.6 * Math.sqrt(sc) * Math.pow(bond, 0.62) * Math.pow(galilei, 0.31) * Math.pow(o.holdup, 1.1);
 	return (rhs * o.diffusivityM2S) / (o.diameterM * o.diameterM);
 }
+
+/**
+ * Frössling (1938), Gerlands Beitr. Geophys. 52: Sh = k_L d/D_L = 2 + 0.552 Re^(1/2) Sc^(1/3) for a rigid sphere
+ * (Re = ρ_l |u_r| d/μ_l, Sc = μ_l/(ρ_l D_L)); used for bubbles whose interface is immobilised by contaminants
+ * (common practice), m/s.
+ */
+export function frosslingMassTransferCoefficient(o: { diffusivityM2S: number; diameterM: number; slipMS: number; liquidDensityKgM3: number; liquidViscosityPaS: number }): number {
+	const re = (o.liquidDensityKgM3 * Math.abs(o.slipMS) * o.diameterM) / o.liquidViscosityPaS;
+	const sc = o.liquidViscosityPaS / (o.liquidDensityKgM3 * o.diffusivityM2S);
+	return ((2 + 0.552 * Math.sqrt(re) * Math.cbrt(sc)) * o.diffusivityM2S) / o.diameterM;
+}

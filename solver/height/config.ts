@@ -10,6 +10,8 @@ import type { WallFrictionModel } from '../closures/friction.js';
 import { bubbleDiameter, gasMassFlux, spargerGasDensityAtRest } from '../derived.js';
 import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2 } from '../fluids.js';
 import { planClasses } from './classes.js';
+import { bairdRiceLiquidDispersion, deckwerLiquidDispersion } from '../correlations/axial-dispersion.js';
+import { bensonKrauseWaterVapourPressurePa, solutes, type SoluteProperties } from '../correlations/solubility.js';
 
 /** Bottom end (z = 0): prescribed inflow of both phases, or a closed wall. */
 export type BottomBoundary =
@@ -52,6 +54,33 @@ export interface GasClassConfig {
 	dragFactor: number;
 	/** share of the gas mass fed at the sparger, 0–1 (the shares sum to 1) */
 	inflowShare: number;
+}
+
+/** The solute transported in the liquid and in each bubble class (PHYSICS-style notes at the top of `transfer.ts`). */
+export interface TransferConfig {
+	mode: 'batch' | 'continuous' | 'steady';
+	solute: SoluteProperties;
+	/** Henry's constant at the case temperature, kg/m³ per Pa of solute partial pressure */
+	henryKgM3Pa: number;
+	/** water vapour pressure taken off the total pressure (0 for a dry gas), Pa */
+	vapourPressurePa: number;
+	initialConcentrationKgM3: number;
+	/** concentration of the liquid entering through an end */
+	inletConcentrationKgM3: number;
+	/** solute mole fraction of the gas entering (sparger and, where gas enters there, the top) */
+	inletGasMoleFraction: number;
+	/** liquid axial dispersion coefficient, m²/s, and where it comes from */
+	dispersionM2S: number;
+	dispersionSource: string;
+	massTransferCoefficient: 'higbie' | 'frossling';
+	liquidHeatCapacityJKgK: number;
+	liquidThermalConductivityWMK: number;
+	/** sampling interval of the dissolved-concentration series (the case's snapshot interval), s */
+	sampleIntervalS: number;
+	/** first-order consumption in the liquid, 1/s per unit liquid volume (verification problems; 0 otherwise) */
+	liquidSinkPerS?: number;
+	/** factor on k_L a (verification problems: 0 switches the exchange off; 1 otherwise) */
+	interfaceFactor?: number;
 }
 
 export interface HeightModelConfig {
@@ -107,6 +136,36 @@ export interface HeightModelConfig {
 	referenceGasDensityKgM3: number;
 	clearLiquidLevelM: number;
 	soluteDiffusivityM2S: number;
+	/** mass transfer along the column; omitted = none (the hydrodynamics alone, as before) */
+	transfer?: TransferConfig;
+}
+
+/** The transfer configuration of a validated height-profile case (null for mode `none`). */
+export function transferConfigFromCase(c: CaseDocument): TransferConfig | null {
+	const t = c.transfer;
+	if (t.mode === 'none') return null;
+	const rhoSp = spargerGasDensityAtRest(c);
+	const jg = gasMassFlux(c) / rhoSp;
+	const column = { columnDiameterM: c.geometry.diameterM, superficialGasVelocityMS: jg };
+	const dispersionM2S = t.dispersion === 'fixed' ? t.dispersionM2S : t.dispersion === 'deckwer' ? deckwerLiquidDispersion(column) : bairdRiceLiquidDispersion(column);
+	const dispersionSource = t.dispersion === 'fixed' ? 'entered by the analyst' : t.dispersion === 'deckwer' ? 'Deckwer et al. 1974' : 'Baird & Rice 1975';
+	const solute = solutes[t.solute];
+	const T = c.fluids.temperatureK;
+	return {
+		mode: t.mode,
+		solute,
+		henryKgM3Pa: solute.henryKgM3Pa(T),
+		vapourPressurePa: t.gasHumidity === 'saturated' ? bensonKrauseWaterVapourPressurePa(T) : 0,
+		initialConcentrationKgM3: t.initialConcentrationKgM3,
+		inletConcentrationKgM3: t.inletConcentrationKgM3,
+		inletGasMoleFraction: t.inletGasMoleFraction,
+		dispersionM2S,
+		dispersionSource,
+		massTransferCoefficient: t.massTransferCoefficient,
+		liquidHeatCapacityJKgK: t.liquidHeatCapacityJKgK,
+		liquidThermalConductivityWMK: t.liquidThermalConductivityWMK,
+		sampleIntervalS: c.numerics.snapshotIntervalS
+	};
 }
 
 /** Build the model configuration of a validated height-profile case. */
@@ -118,6 +177,7 @@ export function configFromCase(c: CaseDocument): HeightModelConfig {
 	const level = c.geometry.clearLiquidLevelM;
 	const jl = c.sparging.superficialLiquidVelocityMS;
 	const plan = planClasses(c);
+	const transfer = transferConfigFromCase(c);
 	const expected: NonNullable<HeightModelConfig['expected']> = {};
 	if (plan.transition) {
 		expected.transitionVelocityMS = { value: plan.transition.velocityMS, unit: 'm/s', label: `Transition gas velocity (${plan.transitionSource})` };
@@ -168,7 +228,8 @@ export function configFromCase(c: CaseDocument): HeightModelConfig {
 		velocityScaleMS: ut + Math.abs(jl) + c.sparging.superficialGasVelocityMS,
 		referenceGasDensityKgM3: rhoSp,
 		clearLiquidLevelM: level,
-		soluteDiffusivityM2S: c.fluids.soluteDiffusivityM2S
+		soluteDiffusivityM2S: c.fluids.soluteDiffusivityM2S,
+		...(transfer ? { transfer } : {})
 	};
 }
 

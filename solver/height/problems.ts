@@ -3,6 +3,7 @@
  * (not user-facing cases). Setups as described in PHYSICS §11.
  */
 import type { HeightModelConfig } from './config.js';
+import { solutes } from '../correlations/solubility.js';
 
 const common = {
 	diameterM: 1,
@@ -81,5 +82,56 @@ export function sedimentationConfig(o: { cells: number; endTimeS: number; bubble
 		velocityScaleMS: 0.3,
 		referenceGasDensityKgM3: 1.16,
 		clearLiquidLevelM: 3.75
+	};
+}
+
+/**
+ * The axial-dispersion reactor of Danckwerts (1953), Chem. Eng. Sci. 2, 1: a vertical pipe full of liquid fed at the
+ * bottom at `liquidVelocityMS`, no gas, a solute entering at concentration 1 kg/m³ with axial dispersion and a
+ * first-order consumption k (1/s); the ends are closed to dispersion. Its steady state is
+ * D c'' − u c' − k c = 0, u c_in = u c(0) − D c'(0), c'(L) = 0.
+ */
+export function dispersionReactorConfig(o: { cells: number; heightM: number; liquidVelocityMS: number; dispersionM2S: number; sinkPerS: number }): HeightModelConfig {
+	return {
+		...common,
+		cells: o.cells,
+		heightM: o.heightM,
+		gasDensityKgM3: 1.16,
+		gravityAxialMS2: -9.81,
+		bubbleDiameterM: 4e-3,
+		drag: 'schiller-naumann',
+		virtualMass: 'constant',
+		virtualMassCoefficient: 0.5,
+		interfacialPressureCoefficient: 0.25,
+		dropletBlend: { fromHoldup: 0.7, toHoldup: 0.9, dropDiameterM: 1e-3 },
+		scheme: 'donor-cell',
+		cflNumber: 0.5,
+		maxTimeStepS: 0.1,
+		endTimeS: 10,
+		steadyTolerance: 1e-8,
+		detectSteady: false,
+		bottom: { kind: 'inflow', gasMassFluxKgM2S: 0, liquidVolumeFluxMS: o.liquidVelocityMS, gasVelocityMS: 0, liquidVelocityMS: o.liquidVelocityMS },
+		top: { kind: 'pressure', pressurePa: 1e5, liquid: 'open' },
+		initial: { holdup: () => 0, gasVelocityMS: 0, liquidVelocityMS: o.liquidVelocityMS },
+		velocityScaleMS: o.liquidVelocityMS,
+		referenceGasDensityKgM3: 1.16,
+		clearLiquidLevelM: o.heightM,
+		transfer: {
+			mode: 'continuous',
+			solute: solutes.oxygen,
+			henryKgM3Pa: 0,
+			vapourPressurePa: 0,
+			initialConcentrationKgM3: 0,
+			inletConcentrationKgM3: 1,
+			inletGasMoleFraction: 0,
+			dispersionM2S: o.dispersionM2S,
+			dispersionSource: 'entered',
+			massTransferCoefficient: 'higbie',
+			liquidHeatCapacityJKgK: 4182,
+			liquidThermalConductivityWMK: 0.598,
+			sampleIntervalS: 1,
+			liquidSinkPerS: o.sinkPerS,
+			interfaceFactor: 0
+		}
 	};
 }

@@ -13,6 +13,10 @@
  *   momentumImbalance    max over faces of |Δu_k| over the window per second, for each phase present
  *                        there, in units of g (the largest unbalanced acceleration)
  * all at or below the steady tolerance ⇒ converged. The values shown before the first window closes are 1.
+ * With mass transfer in batch or continuous mode (`transfer.ts`) one more measure joins them:
+ *   soluteChangeRate     max over cells holding liquid of |Δc| over the window, per second, over the
+ *                        saturation concentration of the gas fed at the top pressure
+ * In steady mode the transfer is solved for its steady state once the hydrodynamics has converged (or the run ends).
  */
 import type { CaseDocument } from '../case.js';
 import type { Checkpoint, Residuals, Results, Simulation, SimulationState, Snapshot, StepStatus, DesignNumber, RunStatus } from '../types.js';
@@ -24,6 +28,10 @@ import { higbieMassTransferCoefficient } from '../correlations/mass-transfer.js'
 import { regimeFromBand, regimeFromTransition } from '../correlations/regime.js';
 import { hikitaHoldup } from '../correlations/churn.js';
 import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
+import { SoluteTransport } from './transfer.js';
+import { deckwerWallHeatTransfer } from '../correlations/heat-transfer.js';
+import { bensonKrauseOxygenSaturationKgM3 } from '../correlations/solubility.js';
+import { GRAVITY_MS2, NORMAL_PRESSURE_PA } from '../fluids.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
@@ -38,9 +46,16 @@ const RUNNING: StepStatus = Object.freeze({ status: 'running' });
 /** Stable residual ids of the height-profile model (database and chart keys). */
 export const residualNames = ['gasMassImbalance', 'liquidMassImbalance', 'holdupChangeRate', 'overallHoldupChange', 'liquidCentreRate', 'momentumImbalance'] as const;
 
+/** Longest dissolved-concentration series kept: beyond it every other sample is dropped and the interval doubled. */
+const MAX_SERIES_POINTS = 20000;
+/** Customary temperature coefficient of kLa for oxygen in clean water (ASCE/EWRI 2-06 practice; PHYSICS §13.1). */
+const KLA_THETA = 1.024;
+
 export interface HeightSimulation extends Simulation {
 	/** the underlying model (tests and the benchmark read its arrays) */
 	readonly model: HeightModel;
+	/** the dissolved gas along the column; null without mass transfer */
+	readonly transfer: SoluteTransport | null;
 	/** level (α = 0.5 crossing from the top), m */
 	level(): number;
 	/** gas holdup below the level */
@@ -81,6 +96,20 @@ class HeightSimulationImpl implements HeightSimulation {
 	private readonly winLiquid: Float64Array;
 	private readonly winGasVelocity: Float64Array;
 	private readonly winLiquidVelocity: Float64Array;
+	readonly transfer: SoluteTransport | null;
+	/** batch and continuous transfer: the solute must be steady too before the run counts as converged */
+	private readonly soluteInCriterion: boolean;
+	private soluteChangeRate = 1;
+	/** concentration at the start of the window and the scale of its change rate, kg/m³ */
+	private readonly winConcentration: Float64Array | null;
+	private readonly concentrationScale: number;
+	/** the batch run's liquid-average concentration at the sample times */
+	private seriesTimeS: number[] = [];
+	private seriesConcentration: number[] = [];
+	private sampleIntervalS = 0;
+	private nextSample = 1;
+	/** steady mode: whether the steady transfer problem has been solved at the end */
+	private steadyState: 'pending' | 'solved' | 'none' = 'pending';
 
 	constructor(caseDoc: CaseDocument, cfg: HeightModelConfig) {
 		this.caseDoc = caseDoc;
@@ -97,6 +126,18 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.liquid0 = this.liquidInventoryM();
 		this.winHoldup = this.overallHoldup();
 		this.winCentre = this.liquidCentre();
+		const t = cfg.transfer;
+		this.transfer = t ? new SoluteTransport(this.model, t) : null;
+		this.soluteInCriterion = !!t && t.mode !== 'steady';
+		this.winConcentration = this.transfer ? Float64Array.from(this.transfer.concentration) : null;
+		this.concentrationScale = t
+			? Math.max(t.henryKgM3Pa * t.inletGasMoleFraction * Math.max(cfg.top.pressurePa - t.vapourPressurePa, 0), t.inletConcentrationKgM3, t.initialConcentrationKgM3, 1e-12)
+			: 1;
+		if (t && t.mode === 'batch') {
+			this.sampleIntervalS = t.sampleIntervalS;
+			this.seriesTimeS.push(0);
+			this.seriesConcentration.push(this.transfer!.meanConcentration());
+		}
 	}
 
 	get state(): SimulationState {
@@ -110,6 +151,15 @@ class HeightSimulationImpl implements HeightSimulation {
 		const m = this.model;
 		if (m.status !== 'running') return m.message ? { status: m.status, message: m.message } : { status: m.status };
 		const status = m.advance();
+		const tr = this.transfer;
+		if (tr && status !== 'failed') {
+			tr.step(m.dtS);
+			const mean = tr.meanConcentration();
+			if (!Number.isFinite(mean)) {
+				m.status = 'failed';
+				m.message = `the dissolved concentration is not a number at t = ${m.timeS.toFixed(4)} s`;
+			} else if (this.sampleIntervalS > 0) this.sample(mean);
+		}
 		const dt = m.dtS;
 		this.winGasIn += m.diag.gasInKgM2S * dt;
 		this.winGasOut += m.diag.gasOutKgM2S * dt;
@@ -120,8 +170,26 @@ class HeightSimulationImpl implements HeightSimulation {
 			const span = m.timeS - this.winStartS;
 			if (span >= this.cfg.steadyWindowS * (1 - 1e-9)) this.closeWindow(span);
 		}
+		const after = m.status as RunStatus;
+		if (tr && tr.cfg.mode === 'steady' && this.steadyState === 'pending' && (after === 'converged' || after === 'finished')) {
+			this.steadyState = tr.solveSteady() ? 'solved' : 'none';
+		}
 		if (m.status === 'running') return RUNNING;
 		return m.message ? { status: m.status, message: m.message } : { status: m.status };
+	}
+
+	/** Add the batch run's liquid-average concentration to its series when simulated time passes the next sample time. */
+	private sample(mean: number): void {
+		const t = this.model.timeS;
+		if (t < this.nextSample * this.sampleIntervalS * (1 - 1e-12)) return;
+		this.seriesTimeS.push(t);
+		this.seriesConcentration.push(mean);
+		if (this.seriesTimeS.length > MAX_SERIES_POINTS) {
+			this.seriesTimeS = this.seriesTimeS.filter((_, i) => i % 2 === 0);
+			this.seriesConcentration = this.seriesConcentration.filter((_, i) => i % 2 === 0);
+			this.sampleIntervalS *= 2;
+		}
+		this.nextSample = Math.floor((t / this.sampleIntervalS) * (1 + 1e-12)) + 1;
 	}
 
 	private closeWindow(span: number): void {
@@ -158,6 +226,19 @@ class HeightSimulationImpl implements HeightSimulation {
 			wl[j] = ul[j];
 		}
 		this.res.momentumImbalance = maxAccel / span / Math.abs(this.cfg.gravityAxialMS2);
+		const wc = this.winConcentration;
+		if (wc && this.transfer) {
+			const c = this.transfer.concentration;
+			let maxDc = 0;
+			for (let i = 0; i < m.n; i++) {
+				if (lf[i] > 1e-3) {
+					const d = Math.abs(c[i] - wc[i]);
+					if (d > maxDc) maxDc = d;
+				}
+				wc[i] = c[i];
+			}
+			this.soluteChangeRate = maxDc / span / this.concentrationScale;
+		}
 		this.windows++;
 		this.winStartS = m.timeS;
 		this.winHoldup = eps;
@@ -176,13 +257,15 @@ class HeightSimulationImpl implements HeightSimulation {
 			r.overallHoldupChange <= tol &&
 			r.liquidCentreRate <= tol &&
 			r.holdupChangeRate <= tol &&
-			r.momentumImbalance <= tol
+			r.momentumImbalance <= tol &&
+			(!this.soluteInCriterion || this.soluteChangeRate <= tol)
 		) {
 			m.status = 'converged';
 		}
 	}
 
 	residuals(): Residuals {
+		if (this.soluteInCriterion) return { ...this.res, soluteChangeRate: this.soluteChangeRate };
 		return { ...this.res };
 	}
 
@@ -303,6 +386,23 @@ class HeightSimulationImpl implements HeightSimulation {
 				fields[`gasVelocity${id}`] = u;
 			}
 		}
+		const tr = this.transfer;
+		if (tr) {
+			const dissolved = Float64Array.from(tr.concentration);
+			const saturation = new Float64Array(n);
+			const mole = new Float64Array(n);
+			const rate = new Float64Array(n);
+			for (let i = 0; i < n; i++) {
+				mole[i] = tr.mixedMoleFraction(i);
+				saturation[i] = tr.saturationFactor[i] * mole[i];
+				rate[i] = tr.transferRate(i);
+			}
+			fields.dissolvedConcentration = dissolved;
+			fields.saturationConcentration = saturation;
+			fields.gasMoleFraction = mole;
+			fields.transferRate = rate;
+			if (m.nc > 1) for (let k = 0; k < m.nc; k++) fields[`gasMoleFraction${classFieldSuffix(m.classes[k].id)}`] = Float64Array.from(tr.moleFraction[k]);
+		}
 		return { step: m.stepCount, timeS: m.timeS, x: Float64Array.from(m.zCentre), fields };
 	}
 
@@ -339,9 +439,30 @@ class HeightSimulationImpl implements HeightSimulation {
 				windowGasVelocity: Float64Array.from(this.winGasVelocity),
 				windowLiquidVelocity: Float64Array.from(this.winLiquidVelocity),
 				residuals: [this.res.gasMassImbalance, this.res.liquidMassImbalance, this.res.overallHoldupChange, this.res.liquidCentreRate, this.res.holdupChangeRate, this.res.momentumImbalance],
-				...this.classCheckpoint()
+				...this.classCheckpoint(),
+				...this.transferCheckpoint()
 			}
 		};
+	}
+
+	/** Dissolved and gas-side solute, totals, window and series (mass transfer only: other checkpoints are unchanged). */
+	private transferCheckpoint(): Record<string, Float64Array | number | string | number[]> {
+		const tr = this.transfer;
+		if (!tr) return {};
+		const t = tr.totals;
+		const out: Record<string, Float64Array | number | string | number[]> = {
+			transferConcentration: Float64Array.from(tr.concentration),
+			transferTotals: [t.transferredKgM2, t.liquidInKgM2, t.liquidOutKgM2, t.gasInKgM2, t.gasOutKgM2],
+			transferWindowConcentration: Float64Array.from(this.winConcentration!),
+			soluteChangeRate: this.soluteChangeRate,
+			transferSeriesTimeS: Float64Array.from(this.seriesTimeS),
+			transferSeriesConcentration: Float64Array.from(this.seriesConcentration),
+			transferSampleIntervalS: this.sampleIntervalS,
+			transferNextSample: this.nextSample,
+			transferSteadyState: this.steadyState
+		};
+		for (let k = 0; k < tr.nc; k++) out[`transferMoleFraction${k}`] = Float64Array.from(tr.moleFraction[k]);
+		return out;
 	}
 
 	/** Class shares and velocities (several classes only: a one-class checkpoint is unchanged). */
@@ -361,7 +482,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		const d = cp.data;
 		if (cp.kind !== 'height-profile') throw new Error(`Checkpoint of a ${cp.kind} run cannot restore a height-profile simulation`);
 		// continuing bit-identically needs the very same numerics
-		if (!canContinueCheckpoint(cp.solverVersion, m.nc === 1)) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
+		if (!canContinueCheckpoint(cp.solverVersion, m.nc === 1, this.transfer !== null)) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 		if (d.cells !== m.n) throw new Error(`Checkpoint has ${String(d.cells)} cells, this case has ${m.n}`);
 		const arr = (name: string, into: Float64Array) => {
 			const v = d[name];
@@ -405,6 +526,32 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.windows = num('windows');
 		const r = d.residuals as number[];
 		this.res = { gasMassImbalance: r[0], liquidMassImbalance: r[1], overallHoldupChange: r[2], liquidCentreRate: r[3], holdupChangeRate: r[4], momentumImbalance: r[5] };
+		const tr = this.transfer;
+		if (!tr) {
+			if (d.transferConcentration !== undefined) throw new Error('Checkpoint carries mass transfer, this case has none');
+			return;
+		}
+		if (d.transferConcentration === undefined) throw new Error('Checkpoint carries no mass transfer, this case has it');
+		arr('transferConcentration', tr.concentration);
+		for (let k = 0; k < tr.nc; k++) arr(`transferMoleFraction${k}`, tr.moleFraction[k]);
+		arr('transferWindowConcentration', this.winConcentration!);
+		const totals = d.transferTotals as number[];
+		const t = tr.totals;
+		[t.transferredKgM2, t.liquidInKgM2, t.liquidOutKgM2, t.gasInKgM2, t.gasOutKgM2] = totals;
+		this.soluteChangeRate = num('soluteChangeRate');
+		const series = (name: string): number[] => {
+			const v = d[name];
+			if (!(v instanceof Float64Array)) throw new Error(`Checkpoint field ${name} is missing`);
+			return Array.from(v);
+		};
+		this.seriesTimeS = series('transferSeriesTimeS');
+		this.seriesConcentration = series('transferSeriesConcentration');
+		this.sampleIntervalS = num('transferSampleIntervalS');
+		this.nextSample = num('transferNextSample');
+		this.steadyState = d.transferSteadyState as 'pending' | 'solved' | 'none';
+		// the coefficients and the state a step starts from follow from the restored hydrodynamics
+		tr.updateCoefficients();
+		tr.captureOld();
 	}
 
 	results(): Results {
@@ -483,8 +630,99 @@ class HeightSimulationImpl implements HeightSimulation {
 			}
 		}
 		Object.assign(design, cfg.expected ?? {});
+		if (this.transfer) Object.assign(design, this.transferDesign({ level, holdup: eps, spargerPressurePa: p0, superficialGasVelocityMS: jg, gasMassFluxKgM2S: fin }));
 		const r: Results = { kind: 'height-profile', status: m.status, step: m.stepCount, timeS: m.timeS, design, profiles: this.snapshot() };
 		if (m.message) r.message = m.message;
+		if (this.transfer && this.sampleIntervalS > 0) {
+			r.series = { [this.transfer.cfg.solute.seriesId]: { timeS: [...this.seriesTimeS], concentrationKgM3: [...this.seriesConcentration] } };
+		}
 		return r;
+	}
+
+	/**
+	 * The design numbers of the mass transfer. The standard oxygen transfer rate and efficiency follow the ASCE/EWRI 2-06
+	 * definitions: SOTR = V kLa20 C∞20 with the kLa and C∞ a clean-water re-aeration test of this column would give.
+	 * For a well-mixed liquid of uniform concentration c the transfer rate, with each class in its steady state, is
+	 * exactly linear, R(c) = R(0) − B c (`uniformLiquidRate`): the test's kLa is B/V and C∞ = R(0)/B, so
+	 * V kLa C∞ = R(0), the rate into oxygen-free water; SOTR = R(0) θ^(20 − T) / (τ Ω), τ = C_s(T)/C_s(20 °C) (Benson &
+	 * Krause 1984), Ω = p_top/101.325 kPa, θ = 1.024. SOTE = SOTR / (oxygen mass flow fed), per metre of submergence (the
+	 * clear-liquid level above the sparger).
+	 */
+	private transferDesign(o: { level: number; holdup: number; spargerPressurePa: number; superficialGasVelocityMS: number; gasMassFluxKgM2S: number }): Record<string, DesignNumber> {
+		const tr = this.transfer!;
+		const t = tr.cfg;
+		const m = this.model;
+		const cfg = this.cfg;
+		const n = m.n;
+		const dz = m.dz;
+		const num = (value: number, unit: string, label: string): DesignNumber => ({ value, unit, label });
+		const areaM2 = (Math.PI * cfg.diameterM * cfg.diameterM) / 4;
+		const f = t.solute.formula;
+		let kSum = 0;
+		let liquid = 0;
+		let rate = 0;
+		for (let i = 0; i < n; i++) {
+			for (let k = 0; k < m.nc; k++) kSum += tr.kLa[k][i];
+			liquid += m.liquidFraction[i];
+			rate += tr.transferRate(i);
+		}
+		rate *= dz;
+		const liquidM = liquid * dz;
+		const topP = cfg.top.pressurePa;
+		const surface = t.henryKgM3Pa * t.inletGasMoleFraction * Math.max(topP - t.vapourPressurePa, 0);
+		const bottom = t.henryKgM3Pa * t.inletGasMoleFraction * Math.max(o.spargerPressurePa - t.vapourPressurePa, 0);
+		// the re-aeration model of the well-mixed liquid: R(c) = R(0) − B c
+		const r0 = tr.uniformLiquidRate(0);
+		const cRef = surface > 0 ? surface : this.concentrationScale;
+		const slope = (r0 - tr.uniformLiquidRate(cRef)) / cRef;
+		const cInf = slope > 0 ? r0 / slope : Number.NaN;
+		const depth = surface > 0 ? ((cInf / surface - 1) * Math.max(topP - t.vapourPressurePa, 0)) / (cfg.liquidDensityKgM3 * GRAVITY_MS2) : Number.NaN;
+		const soluteFed = (t.inletGasMoleFraction * o.gasMassFluxKgM2S * t.solute.molarMassKgMol) / cfg.gasMolarMassKgMol;
+		const gasMolesFed = o.gasMassFluxKgM2S / cfg.gasMolarMassKgMol;
+		const jl = this.caseDoc.sparging.superficialLiquidVelocityMS;
+		const dl = t.dispersionM2S;
+		const c = tr.concentration;
+		const fl0 = m.liquidFlux[0];
+		const fln = m.liquidFlux[n];
+		const outletLiquid = fln > 0 ? c[n - 1] : fl0 < 0 ? c[0] : Number.NaN;
+		const design: Record<string, DesignNumber> = {
+			transferRateKgH: num(rate * areaM2 * 3600, 'kg/h', `${f} transfer rate into the liquid (negative: stripped)`),
+			transferEfficiencyPercent: num(soluteFed > 0 ? (100 * rate) / soluteFed : Number.NaN, '%', `Share of the ${f} fed that dissolves`),
+			transferKLaPerS: num(liquidM > 0 ? kSum * dz / liquidM : 0, '1/s', `Volume-averaged kLa per liquid volume (${t.massTransferCoefficient === 'frossling' ? 'Frössling rigid interface' : 'Higbie penetration'}, a = 6α/d per class)`),
+			apparentKLaPerS: num(liquidM > 0 ? slope / liquidM : 0, '1/s', 'kLa a clean-water re-aeration test would measure (well-mixed liquid, gas depletion included)'),
+			equilibriumConcentrationKgM3: num(cInf, 'kg/m³', `Equilibrium ${f} concentration C∞ of the well-mixed liquid`),
+			surfaceSaturationKgM3: num(surface, 'kg/m³', `${f} saturation with the gas fed at the top pressure`),
+			bottomSaturationKgM3: num(bottom, 'kg/m³', `${f} saturation with the gas fed at the sparger pressure`),
+			effectiveSaturationDepthM: num(depth, 'm', 'Effective saturation depth (where the gas fed is in equilibrium with C∞)'),
+			meanConcentrationKgM3: num(tr.meanConcentration(), 'kg/m³', `Liquid-average dissolved ${f}`),
+			outletGasMoleFraction: num(tr.outletMoleFraction(), '1', `${f} mole fraction of the gas leaving`),
+			transferredGasShare: num(gasMolesFed > 0 ? rate / t.solute.molarMassKgMol / gasMolesFed : 0, '1', 'Share of the gas moles fed that dissolve (the gas flow is not reduced by it: keep it small)'),
+			liquidDispersionM2S: num(dl, 'm²/s', `Liquid axial dispersion coefficient (${t.dispersionSource})`),
+			bodensteinNumber: num(dl > 0 ? (Math.abs(jl) * o.level) / ((1 - o.holdup) * dl) : Number.POSITIVE_INFINITY, '1', 'Liquid Bodenstein number u_l L/D_L over the aerated height (0 for a batch liquid)'),
+			wallHeatTransferWM2K: num(
+				deckwerWallHeatTransfer({
+					superficialGasVelocityMS: o.superficialGasVelocityMS,
+					liquidDensityKgM3: cfg.liquidDensityKgM3,
+					liquidViscosityPaS: cfg.liquidViscosityPaS,
+					heatCapacityJKgK: t.liquidHeatCapacityJKgK,
+					thermalConductivityWMK: t.liquidThermalConductivityWMK
+				}),
+				'W/(m²·K)',
+				'Wall heat-transfer coefficient (Deckwer 1980; for low-viscosity liquids at U_G of about 0.01–0.3 m/s, range from memory)'
+			)
+		};
+		if (Number.isFinite(outletLiquid)) design.outletConcentrationKgM3 = num(outletLiquid, 'kg/m³', `Dissolved ${f} of the liquid leaving`);
+		if (t.solute.id === 'oxygen') {
+			const celsius = cfg.temperatureK - 273.15;
+			const tau = bensonKrauseOxygenSaturationKgM3(cfg.temperatureK) / bensonKrauseOxygenSaturationKgM3(293.15);
+			const omega = topP / NORMAL_PRESSURE_PA;
+			const sotr = (r0 * Math.pow(KLA_THETA, 20 - celsius)) / (tau * omega);
+			const sote = soluteFed > 0 ? (100 * sotr) / soluteFed : Number.NaN;
+			const submergence = cfg.clearLiquidLevelM;
+			design.sotrKgH = num(sotr * areaM2 * 3600, 'kg/h', 'Standard oxygen transfer rate SOTR (ASCE/EWRI 2-06: 20 °C, zero DO, 1 atm)');
+			design.sotePercent = num(sote, '%', 'Standard oxygen transfer efficiency SOTE (ASCE/EWRI 2-06)');
+			design.sotePerMetrePercentM = num(sote / submergence, '%/m', 'SOTE per metre of submergence (clear-liquid level above the sparger)');
+		}
+		return design;
 	}
 }

@@ -14,6 +14,12 @@ export const fieldInfo: Record<string, { label: string; unit: string }> = {
 	holdupLarge: { label: 'large-bubble holdup', unit: '1' },
 	gasVelocitySmall: { label: 'small-bubble velocity', unit: 'm/s' },
 	gasVelocityLarge: { label: 'large-bubble velocity', unit: 'm/s' },
+	dissolvedConcentration: { label: 'dissolved concentration', unit: 'kg/m³' },
+	saturationConcentration: { label: 'saturation concentration', unit: 'kg/m³' },
+	gasMoleFraction: { label: 'solute mole fraction in the gas', unit: '1' },
+	gasMoleFractionSmall: { label: 'solute mole fraction, small bubbles', unit: '1' },
+	gasMoleFractionLarge: { label: 'solute mole fraction, large bubbles', unit: '1' },
+	transferRate: { label: 'transfer rate into the liquid', unit: 'kg/(m³·s)' },
 	effectiveViscosity: { label: 'effective viscosity', unit: 'Pa·s' },
 	liftForce: { label: 'lift force', unit: 'N/m³' },
 	wallLubricationForce: { label: 'wall-lubrication force', unit: 'N/m³' },
@@ -34,7 +40,9 @@ const chartUnits: Record<string, { unit: string; factor: number }> = {
 };
 /** Fields drawn in a unit of their own: bubble diameters of a few millimetres read badly in metres. */
 const fieldChartUnits: Record<string, { unit: string; factor: number }> = {
-	sauterDiameter: { unit: 'mm', factor: 1e3 }
+	sauterDiameter: { unit: 'mm', factor: 1e3 },
+	dissolvedConcentration: { unit: 'mg/L', factor: 1e3 },
+	saturationConcentration: { unit: 'mg/L', factor: 1e3 }
 };
 
 /** Axis title with the unit as drawn, e.g. `gas velocity (m/s)`; dimensionless shows `(–)`. */
@@ -81,7 +89,25 @@ export function positionTitle(kind: string): string {
 export function profileOrder(kind: string): string[] {
 	return kind === 'cross-section'
 		? ['holdup', 'liquidVelocity', 'gasVelocity', 'effectiveViscosity', 'liftForce', 'wallLubricationForce', 'dispersionForce', 'dragForce']
-		: ['holdup', 'holdupSmall', 'holdupLarge', 'sauterDiameter', 'gasVelocity', 'gasVelocitySmall', 'gasVelocityLarge', 'liquidVelocity', 'slip', 'pressure', 'gasDensity'];
+		: [
+				'holdup',
+				'holdupSmall',
+				'holdupLarge',
+				'sauterDiameter',
+				'gasVelocity',
+				'gasVelocitySmall',
+				'gasVelocityLarge',
+				'liquidVelocity',
+				'slip',
+				'pressure',
+				'gasDensity',
+				'dissolvedConcentration',
+				'saturationConcentration',
+				'gasMoleFraction',
+				'gasMoleFractionSmall',
+				'gasMoleFractionLarge',
+				'transferRate'
+			];
 }
 
 /** Design numbers that are published correlations, shown beside the run's own holdup as checks. */
@@ -115,6 +141,24 @@ export const designOrder = [
 	'reversalRadiusRatio',
 	'peakLocation',
 	'axialPressureGradientPaM',
+	'transferRateKgH',
+	'transferEfficiencyPercent',
+	'sotrKgH',
+	'sotePercent',
+	'sotePerMetrePercentM',
+	'transferKLaPerS',
+	'apparentKLaPerS',
+	'equilibriumConcentrationKgM3',
+	'surfaceSaturationKgM3',
+	'bottomSaturationKgM3',
+	'effectiveSaturationDepthM',
+	'meanConcentrationKgM3',
+	'outletConcentrationKgM3',
+	'outletGasMoleFraction',
+	'transferredGasShare',
+	'liquidDispersionM2S',
+	'bodensteinNumber',
+	'wallHeatTransferWM2K',
 	'liquidMassErrorRel'
 ];
 

@@ -12,6 +12,8 @@ export const SHOTS = 'artifacts/screenshots';
 
 export async function signIn(page: Page, email: string) {
 	await page.goto('/signin');
+	// typed before hydration, a value can be reset by it: wait until the page has settled
+	await page.waitForLoadState('networkidle');
 	await page.getByLabel('E-mail', { exact: true }).fill(email);
 	await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
 	await page.getByRole('button', { name: 'Sign in' }).click();

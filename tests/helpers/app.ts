@@ -19,6 +19,8 @@ export interface RunningApp {
 	/** everything the app printed, for diagnosing a failing test */
 	output(): string;
 	stop(): Promise<void>;
+	/** SIGKILL the app process (a crash) and wait for it to exit; `stop()` still closes the rest */
+	kill(): Promise<void>;
 }
 
 export function freePort(): Promise<number> {
@@ -33,8 +35,8 @@ export function freePort(): Promise<number> {
 	});
 }
 
-/** Starts the app; pass extra environment (e.g. for a feature flag) in `env`. */
-export async function startApp(options: { env?: Record<string, string> } = {}): Promise<RunningApp> {
+/** Starts the app; pass extra environment (e.g. for a feature flag) in `env`, `port` to restart one on its old port. */
+export async function startApp(options: { env?: Record<string, string>; port?: number } = {}): Promise<RunningApp> {
 	await prepareTestDatabase();
 	await buildIfNeeded();
 	let catcher: MailCatcher | null = null;
@@ -43,7 +45,7 @@ export async function startApp(options: { env?: Record<string, string> } = {}): 
 		catcher = await startMailCatcher({ port: 0, databaseUrl: testDatabaseUrl() });
 		smtpPort = catcher.port;
 	}
-	const port = await freePort();
+	const port = options.port ?? (await freePort());
 	const baseUrl = `http://127.0.0.1:${port}`;
 	let log = '';
 	const child: ChildProcess = spawn(process.execPath, ['build'], {
@@ -89,13 +91,19 @@ export async function startApp(options: { env?: Record<string, string> } = {}): 
 		smtpPort,
 		output: () => log,
 		stop: async () => {
-			if (child.exitCode === null) {
+			if (child.exitCode === null && child.signalCode === null) {
 				const exited = new Promise((r) => child.once('exit', r));
 				child.kill('SIGTERM');
 				await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
 				if (child.exitCode === null) child.kill('SIGKILL');
 			}
 			await catcher?.close();
+		},
+		kill: async () => {
+			if (child.exitCode !== null || child.signalCode !== null) return;
+			const exited = new Promise((r) => child.once('exit', r));
+			child.kill('SIGKILL');
+			await exited;
 		}
 	};
 }

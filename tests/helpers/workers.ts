@@ -29,11 +29,20 @@ export async function waitFor<T>(probe: () => T | Promise<T>, o: { timeoutMs?: n
 	}
 }
 
-/** Starts a worker with one slot (override with `env`); resolves once it works the queue. */
-export async function startWorker(app: RunningApp, env: Record<string, string> = {}, started?: WorkerProcess[]): Promise<WorkerProcess> {
+/**
+ * Starts a worker with one slot (override with `env`); resolves once it works the queue.
+ * `prefix` runs it through a command that execs it, e.g. `['ip', 'netns', 'exec', name]`.
+ */
+export async function startWorker(
+	app: RunningApp,
+	env: Record<string, string> = {},
+	started?: WorkerProcess[],
+	options: { prefix?: string[] } = {}
+): Promise<WorkerProcess> {
 	let log = '';
 	// node itself with tsx's loader, not the tsx CLI: a SIGKILL must reach the worker, not a wrapper
-	const child = spawn(process.execPath, ['--import', 'tsx', 'worker/index.ts'], {
+	const command = [...(options.prefix ?? []), process.execPath, '--import', 'tsx', 'worker/index.ts'];
+	const child = spawn(command[0], command.slice(1), {
 		cwd: ROOT,
 		env: {
 			...process.env,

@@ -1,22 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { defaultCase, oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
+import { oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
 import { createSimulation, runToEnd } from '../../solver/index.js';
 import { akitaYoshidaHoldup } from '../../solver/correlations/holdup.js';
-import { collinsWallFactor, hikitaHoldup, krishnaAccelerationFactor, krishnaLargeBubbleDiameter, reillyTransition } from '../../solver/correlations/churn.js';
+import { collinsWallFactor, krishnaAccelerationFactor, krishnaLargeBubbleDiameter, reillyTransition } from '../../solver/correlations/churn.js';
 import { createHeightSimulation, type HeightSimulation } from '../../solver/height/simulation.js';
 import { GRAVITY_MS2 } from '../../solver/fluids.js';
+import { churnColumnCase, churnCorrelationMean, churnHoldupBand } from '../../solver/verification/problems.js';
 
 const water = { liquidDensityKgM3: 998.2, liquidViscosityPaS: 1.002e-3, surfaceTensionNM: 0.0727 };
 
 /** Air–water batch column, 6 m tall with 3 m of clear liquid (tall enough for the swell at 0.35 m/s). */
-function column(diameterM: number, ugMS: number, edit: (c: CaseDocument) => void = () => {}): CaseDocument {
-	const c = defaultCase();
-	c.geometry = { heightM: 6, diameterM, clearLiquidLevelM: 3 };
-	c.sparging.superficialGasVelocityMS = ugMS;
-	c.numerics.endTimeS = 300;
-	edit(c);
-	return c;
-}
+const column = churnColumnCase;
 
 function holdup(c: CaseDocument): number {
 	const r = runToEnd(c);
@@ -26,9 +20,7 @@ function holdup(c: CaseDocument): number {
 
 /** Mean of Akita & Yoshida (1973) and Hikita et al. (1980) for air–water at the sparger gas density. */
 function correlationMean(diameterM: number, ugMS: number, gasDensityKgM3: number): number {
-	const ay = akitaYoshidaHoldup({ diameterM, superficialGasVelocityMS: ugMS, ...water });
-	const hk = hikitaHoldup({ superficialGasVelocityMS: ugMS, ...water, gasDensityKgM3, gasViscosityPaS: 1.81e-5 });
-	return 0.5 * (ay + hk);
+	return churnCorrelationMean(diameterM, ugMS, gasDensityKgM3).mean;
 }
 
 describe('the churn-turbulent correlations of the two-class model', () => {
@@ -116,7 +108,7 @@ describe('holdup from bubbly to churn-turbulent flow (default small + large bubb
 				// Hikita et al. 1980). In the 0.15 m column above 0.25 m/s the Collins wall factor slows the large
 				// bubbles (d_b/D ≈ 0.3) and the model sits up to ~33 % above the diameter-free correlations; narrow
 				// columns do hold more gas in churn flow (Krishna et al. 1999), so the band there is ±35 %.
-				const band = d < 0.2 && row.ug > 0.25 ? 0.35 : 0.3;
+				const band = churnHoldupBand(d, row.ug);
 				expect(Math.abs(row.model / row.mean - 1), `U_G ${row.ug} m/s: model ${row.model.toFixed(4)}, correlations ${row.mean.toFixed(4)}`).toBeLessThan(band);
 			}
 			// the change of slope of the transition: dε/dU_G between 0.01 and 0.02 m/s against 0.06–0.1 m/s

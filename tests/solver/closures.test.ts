@@ -21,6 +21,7 @@ import {
 	wallLubricationModels
 } from '../../solver/case.js';
 import { graceVelocity, mendelsonVelocity } from '../../solver/correlations/terminal-velocity.js';
+import { CLIFT_GRACE_WEBER_CONTAMINATED } from '../../solver/verification/problems.js';
 
 // Reference property set of PHYSICS §0: water and air at 20 °C, 1 atm
 const water = { liquidDensityKgM3: 998.2, gasDensityKgM3: 1.204, liquidViscosityPaS: 1.002e-3, surfaceTensionNM: 0.0727 };
@@ -88,15 +89,7 @@ describe('single-bubble drag and terminal velocity (PHYSICS §15)', () => {
 	it('agrees with the Clift, Grace & Weber (1978) contaminated-water curve for the Tomiyama contaminated law', () => {
 		// Clift, Grace & Weber (1978), Bubbles, Drops and Particles, Fig. 7.3, readings from memory (PHYSICS §10):
 		// the readings themselves are uncertain by about ±15 %, so that is the stated tolerance; ranges use their midpoint
-		const readings: [number, number][] = [
-			[0.5e-3, 0.06],
-			[1e-3, 0.11],
-			[2e-3, 0.185],
-			[3e-3, 0.23],
-			[5e-3, 0.23],
-			[10e-3, 0.25]
-		];
-		for (const [d, u] of readings) {
+		for (const [d, u] of CLIFT_GRACE_WEBER_CONTAMINATED) {
 			const ut = terminalVelocity({ law: 'tomiyama-contaminated', diameterM: d, ...water });
 			expect(rel(ut, u)).toBeLessThan(0.15);
 		}

@@ -3,12 +3,13 @@
  * conservation, and the steady holdup against the one-dimensional drift-flux balance.
  */
 import { describe, expect, it } from 'vitest';
-import { oneClassCase as defaultCase, type CaseDocument } from '../../solver/case.js';
+import { oneClassCase as defaultCase } from '../../solver/case.js';
 import { createHeightSimulation, residualNames, type HeightSimulation } from '../../solver/height/simulation.js';
 import { terminalVelocity } from '../../solver/closures/drag.js';
 import { idealGasDensity, GRAVITY_MS2 } from '../../solver/fluids.js';
 import { runToEnd } from '../../solver/index.js';
 import { gridConvergenceIndex } from '../../solver/gci.js';
+import { diluteColumnCase, diluteSlip, diluteStokesCase, referenceCase, restingColumnCase, restingColumnSpargerPressurePa } from '../../solver/verification/problems.js';
 
 function run(sim: HeightSimulation): HeightSimulation {
 	while (sim.state.status === 'running') sim.step();
@@ -26,9 +27,7 @@ function root(f: (x: number) => number, lo: number, hi: number): number {
 }
 
 describe('a liquid column at rest', () => {
-	const c = defaultCase();
-	c.sparging.superficialGasVelocityMS = 0;
-	c.numerics.endTimeS = 5;
+	const c = restingColumnCase();
 	const sim = createHeightSimulation(c, { detectSteady: false });
 	const m = sim.model;
 	const holdup0 = Float64Array.from(m.liquidFraction);
@@ -57,9 +56,7 @@ describe('a liquid column at rest', () => {
 		// the absolute level: top pressure + gas column (isothermal ideal gas, 0.5 m) + liquid weight. The only
 		// departure is the momentum of the would-be bubbles at the level face (~1e-7 of the head)
 		const pBottom = sim.results().design.spargerPressurePa.value;
-		const rhoTop = (c.fluids.topPressurePa * c.fluids.gas.molarMassKgMol) / (8.314462618 * c.fluids.temperatureK);
-		const pLevel = c.fluids.topPressurePa * Math.exp((rhoTop / c.fluids.topPressurePa) * GRAVITY_MS2 * (c.geometry.heightM - c.geometry.clearLiquidLevelM));
-		const exact = pLevel + c.fluids.liquid.densityKgM3 * GRAVITY_MS2 * c.geometry.clearLiquidLevelM;
+		const exact = restingColumnSpargerPressurePa(c);
 		expect(Math.abs(pBottom - exact) / exact).toBeLessThan(1e-6);
 		// the gas above the level is hydrostatic to round-off as well
 		for (let i = m.n - 1; i > 0 && m.zCentre[i - 1] > c.geometry.clearLiquidLevelM; i--) {
@@ -69,22 +66,9 @@ describe('a liquid column at rest', () => {
 	});
 });
 
-/** Slip at the cell centres in the bubbly region of a dilute run, with the local gas density. */
-function diluteSlip(c: CaseDocument, zM: number) {
-	const sim = run(createHeightSimulation(c, { detectSteady: false }));
-	const m = sim.model;
-	const i = Math.floor(zM / m.dz);
-	const slip = 0.5 * (m.gasVelocity[i] + m.gasVelocity[i + 1]) - 0.5 * (m.liquidVelocity[i] + m.liquidVelocity[i + 1]);
-	return { slip, holdup: 1 - m.liquidFraction[i], gasDensity: m.gasDensity[i], sim };
-}
-
 describe('the dilute limit', () => {
 	it('gives the terminal velocity of the Schiller–Naumann law as the slip of a sparse swarm', () => {
-		const c = defaultCase();
-		c.sparging.superficialGasVelocityMS = 2e-4;
-		c.bubbles.diameterM = 2e-3;
-		c.numerics.endTimeS = 4;
-		const r = diluteSlip(c, 0.5);
+		const r = diluteSlip(diluteColumnCase({ diameterM: 2e-3, drag: 'schiller-naumann', endTimeS: 4 }), 0.5);
 		expect(r.holdup).toBeGreaterThan(1e-4);
 		expect(r.holdup).toBeLessThan(2e-3);
 		// independent root solve of (4/3) g d Δρ = C_D ρ_l U² (PHYSICS §1.7; Schiller–Naumann law from memory); the model's slip is U_t √α_l
@@ -95,16 +79,7 @@ describe('the dilute limit', () => {
 
 	it("gives Stokes' law for the Stokes drag in a viscous liquid", () => {
 		// glycerol–water 80 wt % (ρ 1208, μ 0.0609; Cheng 2008 viscosity), 0.5 mm bubbles: Re ≈ 0.03
-		const c = defaultCase();
-		c.geometry.heightM = 0.3;
-		c.geometry.clearLiquidLevelM = 0.2;
-		c.numerics.cells = 30;
-		c.fluids.liquid = { name: 'glycerol–water 80 wt %', densityKgM3: 1208, viscosityPaS: 0.0609, surfaceTensionNM: 0.065 };
-		c.closures.drag = 'stokes';
-		c.bubbles.diameterM = 5e-4;
-		c.sparging.superficialGasVelocityMS = 2e-6;
-		c.numerics.endTimeS = 20;
-		const r = diluteSlip(c, 0.02);
+		const r = diluteSlip(diluteStokesCase(), 0.02);
 		// Stokes (1851): U = Δρ g d²/(18 μ), written out here (law from memory, PHYSICS §1.1)
 		const us = ((1208 - r.gasDensity) * 9.81 * 5e-4 * 5e-4) / (18 * 0.0609);
 		expect(r.holdup).toBeGreaterThan(1e-4);
@@ -231,9 +206,7 @@ describe('grid convergence of the reference case', () => {
 	it('converges monotonically in the overall holdup with a small Grid Convergence Index', () => {
 		// Celik et al. (2008) procedure on 100, 200 and 400 cells (h = 2 m / N)
 		const values = [400, 200, 100].map((cells) => {
-			const c = defaultCase();
-			c.numerics.cells = cells;
-			const sim = run(createHeightSimulation(c));
+			const sim = run(createHeightSimulation(referenceCase(cells)));
 			expect(sim.state.status).toBe('converged');
 			return sim.overallHoldup();
 		}) as [number, number, number];

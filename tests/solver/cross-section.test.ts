@@ -11,6 +11,7 @@ import {
 	solveAxialMomentum,
 	transportHoldup
 } from '../../solver/cross-section/index.js';
+import { blasiusFrictionFactor, colebrookFrictionFactor, pipeCase, recirculationProfile } from '../../solver/verification/problems.js';
 
 type Overrides = { [K in keyof CaseDocument]?: Partial<CaseDocument[K]> };
 
@@ -45,19 +46,15 @@ const nuL = 1.002e-3 / rhoL;
 
 describe('cross-section model, single-phase limit (no gas)', () => {
 	// smooth-pipe references: Blasius (1913) f = 0.3164 Re^−0.25 (Re < 1e5) and Colebrook (1939) with zero roughness
-	const blasius = (re: number) => 0.3164 * Math.pow(re, -0.25);
-	const colebrook = (re: number) => {
-		let f = 0.02;
-		for (let k = 0; k < 60; k++) f = Math.pow(-2 * Math.log10(2.51 / (re * Math.sqrt(f))), -2);
-		return f;
-	};
+	const blasius = blasiusFrictionFactor;
+	const colebrook = colebrookFrictionFactor;
 
 	it.each([
 		// first-cell y⁺ ≈ 30 and ≈ 60: inside the log layer, where the wall function holds
 		{ diameterM: 0.05, velocityMS: 0.4, cells: 10 },
 		{ diameterM: 0.2, velocityMS: 0.5, cells: 20 }
 	])('reproduces the Blasius and Colebrook friction factor and the velocity-defect law in a $diameterM m pipe at $velocityMS m/s', ({ diameterM, velocityMS, cells }) => {
-		const c = crossCase({ geometry: { diameterM }, sparging: { superficialGasVelocityMS: 0, superficialLiquidVelocityMS: velocityMS }, numerics: { cells } });
+		const c = pipeCase({ diameterM, velocityMS, cells });
 		const { sim, results } = runToSteady(c);
 		expect(sim.state.status).toBe('converged');
 		const re = (velocityMS * diameterM) / nuL;
@@ -144,40 +141,7 @@ describe('radial liquid momentum, observed order of accuracy', () => {
 	it('converges at second order in the cell size towards the analytic recirculation profile', () => {
 		// same problem as above (PHYSICS §7 [D]); ᾱ = 1e-8 makes the O(ᾱ) constraint difference negligible,
 		// the equations being linear in ᾱ. Central differences on a uniform grid: order 2 expected.
-		const R = 0.1;
-		const nuT = 2e-3;
-		const abar = 1e-8;
-		const error = (n: number) => {
-			const grid = createRadialGrid({ radiusM: R, cells: n });
-			const ul = new Float64Array(n);
-			solveAxialMomentum({
-				grid,
-				dtS: Infinity,
-				liquidDensityKgM3: rhoL,
-				gasDensityKgM3: 0,
-				gravityMS2: g,
-				holdup: grid.centresM.map((r) => 2 * abar * (1 - (r / R) ** 2)),
-				stressWeight: new Float64Array(n + 1).fill(1),
-				faceViscosityPaS: new Float64Array(n + 1).fill(rhoL * nuT),
-				wallCoefficientPaSM: (rhoL * nuT) / (0.5 * grid.drM),
-				virtualMassCoefficient: new Float64Array(n),
-				dragSlope: new Float64Array(n).fill(1e4),
-				dragOffset: new Float64Array(n),
-				liquidVelocityOld: new Float64Array(n),
-				gasVelocityOld: new Float64Array(n),
-				superficialLiquidVelocityMS: 0,
-				liquidVelocity: ul,
-				gasVelocity: new Float64Array(n),
-				work: new Float64Array(8 * n)
-			});
-			const scale = (abar * g * R * R) / (24 * nuT);
-			let l1 = 0;
-			for (let i = 0; i < n; i++) {
-				const xi = grid.centresM[i] / R;
-				l1 += Math.abs(ul[i] - scale * (1 - 4 * xi * xi + 3 * xi ** 4)) * grid.volumes[i];
-			}
-			return l1 / grid.totalVolume / scale;
-		};
+		const error = (n: number) => recirculationProfile(n).error;
 		const e = [20, 40, 80].map(error);
 		// measured: 4.68e-3, 1.18e-3, 2.94e-4 (orders 1.99, 2.00)
 		expect(Math.abs(Math.log2(e[0] / e[1]) - 2)).toBeLessThan(0.1);

@@ -7,27 +7,14 @@ import { describe, expect, it } from 'vitest';
 import { defaultCase } from '../../solver/case.js';
 import { createHeightSimulationFromConfig } from '../../solver/height/simulation.js';
 import { faucetConfig } from '../../solver/height/problems.js';
-
-const g = 9.81;
-function exactHoldup(x: number, t: number): number {
-	const xf = 10 * t + 0.5 * g * t * t;
-	return x <= xf ? 1 - (0.8 * 10) / Math.sqrt(100 + 2 * g * x) : 0.2;
-}
+import { faucetL1Error, runFaucet } from '../../solver/verification/problems.js';
 
 /** Mean absolute error of the cell holdups against exact cell averages (midpoint rule, 400 points per cell). */
 function l1Error(cells: number, t: number, scheme: 'donor-cell' | 'van-leer' | 'minmod' = 'donor-cell'): number {
-	const sim = createHeightSimulationFromConfig(defaultCase(), faucetConfig({ cells, endTimeS: t, scheme }));
-	while (sim.state.status === 'running') sim.step();
+	const sim = runFaucet({ cells, endTimeS: t, scheme });
 	expect(sim.state.status).toBe('finished');
 	expect(sim.state.timeS).toBe(t);
-	const dz = 12 / cells;
-	let sum = 0;
-	for (let i = 0; i < cells; i++) {
-		let avg = 0;
-		for (let q = 0; q < 400; q++) avg += exactHoldup((i + (q + 0.5) / 400) * dz, t);
-		sum += Math.abs(1 - sim.model.liquidFraction[i] - avg / 400);
-	}
-	return sum / cells;
+	return faucetL1Error(sim);
 }
 
 describe("Ransom's water faucet", () => {

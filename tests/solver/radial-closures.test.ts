@@ -3,6 +3,7 @@ import { eotvosNumber } from '../../solver/closures/drag.js';
 import { horizontalDiameterM, radialLiftForce, tomiyamaLiftCoefficient, tomiyamaLiftPolynomial } from '../../solver/closures/lift.js';
 import { ANTAL_CW1, ANTAL_CW2, FRANK_CWC, hosokawaWallCoefficient, tomiyamaWallCoefficient, wallLubricationForce, type WallLubricationModel } from '../../solver/closures/wall-lubrication.js';
 import { BURNS_SIGMA_TD, dispersionDiffusivityM2S, radialDispersionForce } from '../../solver/closures/dispersion.js';
+import { liftSignChangeDiameterM } from '../../solver/verification/problems.js';
 import { KARMAN_KAPPA, LOG_LAW_E, SUBLAYER_Y_PLUS, logLawWallFunction, nikuradseMixingLengthM, satoViscosityPaS } from '../../solver/closures/turbulence.js';
 
 // Reference property set of PHYSICS §0: water and air at 20 °C, 1 atm
@@ -13,15 +14,9 @@ describe('Tomiyama et al. (2002) lift coefficient with the Wellek et al. (1966) 
 	it('changes sign at a volume-equivalent diameter of 5.8 mm for air–water (PHYSICS §15 #10)', () => {
 		// #10 [D]: f(Eo_d) = 0 at Eo_d = 6.061, d_H = 6.71 mm, d = 5.84 mm; assert 5.8 ± 0.1 mm (Tomiyama coefficients
 		// other than 0.00105 and the Wellek constants 0.163/0.757 from memory, PHYSICS §4)
-		let lo = 5e-3;
-		let hi = 7e-3;
-		expect(lift(lo)).toBeGreaterThan(0);
-		expect(lift(hi)).toBeLessThan(0);
-		for (let k = 0; k < 60; k++) {
-			const mid = 0.5 * (lo + hi);
-			if (lift(mid) > 0) lo = mid;
-			else hi = mid;
-		}
+		expect(lift(5e-3)).toBeGreaterThan(0);
+		expect(lift(7e-3)).toBeLessThan(0);
+		const lo = liftSignChangeDiameterM();
 		expect(Math.abs(lo - 5.8e-3)).toBeLessThan(0.1e-3);
 		expect(Math.abs(lo - 5.84e-3)).toBeLessThan(0.01e-3);
 		const dH = horizontalDiameterM({ diameterM: lo, eotvos: eotvosNumber({ diameterM: lo, ...water }) });

@@ -19,7 +19,12 @@
  *
  * Failures: a solver failure (a `failed` step status, or the solver throwing) is recorded on the
  * run and the handler returns — retrying would fail the same way. Only database faults throw, so
- * pg-boss retries the job, which resumes from the checkpoint.
+ * pg-boss retries the job, which resumes from the checkpoint. A write the database itself keeps
+ * refusing (a full disk, a failing constraint or trigger) would fail every retry the same way: on
+ * pg-boss's last try the run is failed instead, with the database's message. A fault that is no
+ * answer of the server (it restarted, the network is gone) is left to the heartbeat sweeper, which
+ * re-queues the run once the database is back. A failed write is one rolled-back transaction, so
+ * nothing half-written is ever read back.
  */
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type PgBoss from 'pg-boss';
@@ -72,7 +77,18 @@ function describeTime(o: { step: number; timeS: number }): string {
 	return `simulated time ${o.timeS.toPrecision(4)} s, step ${o.step}`;
 }
 
-export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>): Promise<void> {
+/** A job as pg-boss hands it to the worker (`includeMetadata`: how many tries it had). */
+export type SolveJob = PgBoss.Job<SolveJobData> & Partial<Pick<PgBoss.JobWithMetadata<SolveJobData>, 'retryCount' | 'retryLimit'>>;
+
+/** An error the database server answered with (a SQLSTATE), not a lost or refused connection. */
+export function refusedByDatabase(e: unknown): e is Error & { code: string } {
+	const code = (e as { code?: unknown } | null)?.code;
+	if (typeof code !== 'string' || !/^[0-9A-Z]{5}$/.test(code)) return false;
+	// class 08: connection exception; 57: the server shutting down or starting (operator intervention)
+	return !code.startsWith('08') && !code.startsWith('57');
+}
+
+export async function solveJob(ctx: SolveContext, job: SolveJob): Promise<void> {
 	const { runId } = job.data;
 	const { pool } = ctx.handle;
 	// ownership is per attempt: a retry of the same job in the same process is a different owner
@@ -378,7 +394,37 @@ export async function solveJob(ctx: SolveContext, job: PgBoss.Job<SolveJobData>)
 		if (threadLost) ctx.pool.replace(thread);
 		else ctx.pool.release(thread);
 	}
-	if (fault) throw fault;
+	if (fault) {
+		const lastTry = job.retryLimit !== undefined && (job.retryCount ?? 0) >= job.retryLimit;
+		if (lastTry && refusedByDatabase(fault) && (await failAfterRefusedWrites(fault))) return;
+		throw fault;
+	}
+
+	/** Ends the run as failed with the database's refusal; false when even that cannot be written. */
+	async function failAfterRefusedWrites(e: Error & { code: string }): Promise<boolean> {
+		const tries = (job.retryCount ?? 0) + 1;
+		try {
+			await withTransaction(pool, async (tx) => {
+				// the run's progress as stored: the refused transaction's rows were rolled back
+				const { rows } = await tx.client.query<{ step: number; time_s: number }>(
+					'select step, simulated_time_s as time_s from residuals where run_id = $1 order by step desc limit 1',
+					[runId]
+				);
+				latest = rows[0] ? { step: rows[0].step, timeS: rows[0].time_s } : { step: 0, timeS: 0 };
+				await endRun(tx, 'failed', {
+					errorMessage:
+						`Failed: the database refused to store this run's results ${tries} times in a row, at ${describeTime(latest)} ` +
+						`(${e.message}; SQLSTATE ${e.code}). What was stored before is complete; fix the database (for example its free disk space) and re-run.`
+				});
+			});
+		} catch (again) {
+			ctx.log(`run ${runId}: could not record the failure either: ${(again as Error).message}`);
+			return false;
+		}
+		ctx.log(`run ${runId}: failed after ${tries} refused writes: ${e.message}`);
+		await afterEnd();
+		return true;
+	}
 }
 
 async function mailQuietly(ctx: SolveContext, runId: string): Promise<void> {

@@ -191,13 +191,17 @@ export function parseMeasurementCsv(opts: ParseOptions): ParseResult {
 		let xSi: number | null = null;
 		if (xv !== null) {
 			xSi = toSi(xv, xUnit as Unit);
-			if (spec.xIsHeight && (xSi < 0 || xSi > heightM)) {
+			if (!Number.isFinite(xSi)) {
+				// a huge value in a large unit (1e306 h) overflows in SI
+				errors.push({ row, column: 1, message: `Row ${row}, ${name(1)}: ${fmt(xv)} ${(xUnit as Unit).id} is out of the number range in SI` });
+				xSi = null;
+			} else if (spec.xIsHeight && (xSi < 0 || xSi > heightM)) {
 				errors.push({ row, column: 1, message: `Row ${row}, ${name(1)}: ${fmt(xSi)} m is outside the column (0 to ${fmt(heightM)} m above the sparger)` });
 			} else if (xSi < spec.xRange[0] || xSi > spec.xRange[1]) {
 				const what = spec.x.quantity === 'time' ? 'a time must not be negative' : 'r/R must lie between 0 and 1';
 				errors.push({ row, column: 1, message: `Row ${row}, ${name(1)}: ${fmt(xSi)} is out of range (${what})` });
 			}
-			if (prev) {
+			if (prev && xSi !== null) {
 				if (xSi === prev.x) {
 					errors.push({ row, column: 1, message: `Row ${row}, ${name(1)}: duplicate ${positionWord} ${fmt(xv)} ${(xUnit as Unit).id} (also in row ${prev.row})` });
 				} else if (xSi < prev.x) {
@@ -208,12 +212,15 @@ export function parseMeasurementCsv(opts: ParseOptions): ParseResult {
 					});
 				}
 			}
-			if (!prev || xSi > prev.x) prev = { x: xSi, row };
+			if (xSi !== null && (!prev || xSi > prev.x)) prev = { x: xSi, row };
 		}
 		let ySi: number | null = null;
 		if (yv !== null) {
 			ySi = toSi(yv, yUnit as Unit);
-			if (ySi < spec.yRange[0] || ySi > spec.yRange[1]) {
+			if (!Number.isFinite(ySi)) {
+				errors.push({ row, column: 2, message: `Row ${row}, ${name(2)}: ${fmt(yv)} ${(yUnit as Unit).id} is out of the number range in SI` });
+				ySi = null;
+			} else if (ySi < spec.yRange[0] || ySi > spec.yRange[1]) {
 				errors.push({ row, column: 2, message: `Row ${row}, ${name(2)}: ${fmt(yv)} ${(yUnit as Unit).id} is out of range (${spec.yRangeText})` });
 			}
 		}

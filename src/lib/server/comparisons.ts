@@ -5,6 +5,7 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from './db/app.js';
+import { isUuid } from './guard.js';
 import { comparisons, measurements, runs, snapshots, users } from './db/schema.js';
 import { decodeSnapshot } from './runs/codec.js';
 import { latestVerdicts } from './cases.js';
@@ -64,6 +65,8 @@ export async function createComparison(options: { teamId: string; columnId: stri
 }
 
 export async function getComparison(options: { teamId: string; id: string }): Promise<Comparison | null> {
+	// a malformed id would make PostgreSQL raise instead of matching nothing
+	if (!isUuid(options.id)) return null;
 	const [row] = await db
 		.select()
 		.from(comparisons)

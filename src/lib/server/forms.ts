@@ -2,7 +2,7 @@
  * Small helpers for plain HTML form actions validated with zod: on error an action returns
  * `fail(400, { values, errors })` and the page shows each message beside its field.
  */
-import { fail } from '@sveltejs/kit';
+import { error, fail, type Handle } from '@sveltejs/kit';
 import type { z } from 'zod';
 
 export type FieldErrors = Record<string, string>;
@@ -25,3 +25,19 @@ export function parseForm<S extends z.ZodType>(schema: S, data: FormData) {
 	}
 	return { data: null, values, failure: fail(400, { values, errors }) };
 }
+
+/**
+ * Handle (`hooks.server.ts`): a form body that cannot be parsed (a broken multipart upload) is the
+ * sender's mistake, so every form action that reads it answers 400, not 500.
+ */
+export const readableForms: Handle = async ({ event, resolve }) => {
+	const request = event.request;
+	const read = request.formData.bind(request);
+	request.formData = () =>
+		read().catch((e: unknown) => {
+			// a body read twice is a fault of ours, not of the sender: left as it is
+			if (e instanceof TypeError && !/unusable|consumed|already/i.test(e.message)) error(400, 'The form data could not be read. Send the form again.');
+			throw e;
+		});
+	return resolve(event);
+};

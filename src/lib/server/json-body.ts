@@ -85,7 +85,7 @@ function sizeRefusal(maxBytes: number, size?: number): Response {
  * dropped (the server's own request limit bounds it): a client still sending would otherwise see
  * the connection reset instead of the answer.
  */
-async function readCapped(request: Request, maxBytes: number): Promise<Uint8Array<ArrayBuffer> | null> {
+export async function readCapped(request: Request, maxBytes: number): Promise<Uint8Array<ArrayBuffer> | null> {
 	if (!request.body) return new Uint8Array(0);
 	const reader = request.body.getReader();
 	const chunks: Uint8Array[] = [];

@@ -5,6 +5,7 @@
  */
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db } from './db/app.js';
+import { isUuid } from './guard.js';
 import { auditLog, cases, columns, comparisons, measurements, runs, snapshots } from './db/schema.js';
 import { parseMeasurementCsv, type CsvIssue } from '../measurements/csv.js';
 import {
@@ -60,6 +61,8 @@ export async function listMeasurementsForColumn(options: { teamId: string; colum
 }
 
 export async function getMeasurement(options: { teamId: string; id: string }): Promise<Measurement | null> {
+	// a malformed id would make PostgreSQL raise instead of matching nothing
+	if (!isUuid(options.id)) return null;
 	const [row] = await db
 		.select()
 		.from(measurements)

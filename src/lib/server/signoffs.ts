@@ -5,7 +5,7 @@
 import { and, asc, desc, eq, inArray, isNotNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from './db/app.js';
-import { cases, comments, comparisons, runs, signOffs, users } from './db/schema.js';
+import { auditLog, cases, comments, comparisons, runs, signOffs, users } from './db/schema.js';
 import { sendMail } from './mail/send.js';
 
 export type SubjectType = 'case' | 'comparison' | 'study';
@@ -117,13 +117,23 @@ export async function signOff(options: {
 	verdict: Verdict;
 	comment: string;
 }): Promise<{ mailedTo: string[]; mailError: string | null }> {
-	await db.insert(signOffs).values({
-		teamId: options.teamId,
-		subjectType: options.subjectType,
-		subjectId: options.subjectId,
-		verdict: options.verdict,
-		comment: options.comment,
-		signedBy: options.userId
+	// the verdict and its audit line commit together
+	await db.transaction(async (tx) => {
+		await tx.insert(signOffs).values({
+			teamId: options.teamId,
+			subjectType: options.subjectType,
+			subjectId: options.subjectId,
+			verdict: options.verdict,
+			comment: options.comment,
+			signedBy: options.userId
+		});
+		await tx.insert(auditLog).values({
+			teamId: options.teamId,
+			userId: options.userId,
+			action: `${options.subjectType}.signOff`,
+			subject: options.subjectId,
+			detail: { name: options.subjectName, verdict: options.verdict }
+		});
 	});
 	const to = await analystsToTell(options);
 	const verdictText = options.verdict === 'approved-basis' ? 'approved as the model basis' : 'sent back: changes requested';

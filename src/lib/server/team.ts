@@ -126,8 +126,13 @@ export async function inviteMember(options: {
 	return { token };
 }
 
-export async function revokeInvitation(options: { teamId: string; id: string }): Promise<void> {
-	await db.delete(invitations).where(and(eq(invitations.id, options.id), eq(invitations.teamId, options.teamId)));
+/** Deletes one of the team's invitations; false when the team has no such invitation. */
+export async function revokeInvitation(options: { teamId: string; id: string }): Promise<boolean> {
+	const rows = await db
+		.delete(invitations)
+		.where(and(eq(invitations.id, options.id), eq(invitations.teamId, options.teamId)))
+		.returning({ id: invitations.id });
+	return rows.length > 0;
 }
 
 /** An open invitation by its token (with its team), or null when unknown, used or expired. */

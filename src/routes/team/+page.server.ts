@@ -92,7 +92,8 @@ export const actions: Actions = {
 		const { team, user } = await requireMember(event, 'admin');
 		const id = str(await event.request.formData(), 'invitationId');
 		if (!isUuid(id)) error(404, 'Invitation not found.');
-		await revokeInvitation({ teamId: team.id, id });
+		// another team's invitation answers like an unknown one
+		if (!(await revokeInvitation({ teamId: team.id, id }))) error(404, 'Invitation not found.');
 		await audit(db, { teamId: team.id, userId: user.id, action: 'invitation.revoke', subject: id });
 		return { revoked: true };
 	}

@@ -29,7 +29,10 @@ export function formatCursor(c: EventCursor): string {
 export function parseCursor(value: string | null | undefined): EventCursor {
 	const m = /^(\d+)\.(\d+)\.(\d+)$/.exec(value?.trim() ?? '');
 	if (!m) return { ...START_CURSOR };
-	return { step: Number(m[1]), snapshotId: Number(m[2]), statusKey: Number(m[3]) };
+	const [step, snapshotId, statusKey] = [m[1], m[2], m[3]].map(Number);
+	// no cursor this app wrote exceeds these (a step beyond PostgreSQL's integer would make every read fail)
+	if (step > 2_147_483_647 || !Number.isSafeInteger(snapshotId) || !Number.isSafeInteger(statusKey)) return { ...START_CURSOR };
+	return { step, snapshotId, statusKey };
 }
 
 /**

@@ -7,6 +7,7 @@
  */
 import * as commands from './commands.js';
 import { appBoss, appHandle, appHub } from './app.js';
+import { isUuid } from './history.js';
 
 export { RunRequestError, ACTIVE_STATUSES, TERMINAL_STATUSES } from './commands.js';
 export type { Run } from './commands.js';
@@ -19,15 +20,19 @@ export { appHandle, appHub };
 
 /** Queue a run of a team's case (throws `RunRequestError` for the member's mistakes). */
 export async function queue(o: { teamId: string; caseId: string; userId: string }): Promise<commands.Run> {
+	// a malformed id would make PostgreSQL raise: it names no case of the team
+	if (!isUuid(o.caseId)) throw new commands.RunRequestError('Case not found', 404);
 	return commands.queue({ ...o, handle: appHandle, boss: await appBoss() });
 }
 
 /** Queue a new run of an earlier run's frozen case. */
 export async function rerun(o: { teamId: string; runId: string; userId: string }): Promise<commands.Run> {
+	if (!isUuid(o.runId)) throw new commands.RunRequestError('Run not found', 404);
 	return commands.rerun({ ...o, handle: appHandle, boss: await appBoss() });
 }
 
 /** Cancel a queued or running run (a running one stops within about a second). */
 export async function cancel(o: { teamId: string; runId: string }): Promise<commands.Run> {
+	if (!isUuid(o.runId)) throw new commands.RunRequestError('Run not found', 404);
 	return commands.cancel({ ...o, handle: appHandle, boss: await appBoss() });
 }

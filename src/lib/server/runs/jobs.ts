@@ -21,6 +21,15 @@ export function solveQueue(solverVersion: string): string {
 /** The queue of this process's solver version. */
 export const SOLVE_QUEUE = solveQueue(SOLVER_VERSION);
 
+/**
+ * pg-boss queue of the verification of one solver version (src/lib/server/verification); a job's data
+ * is `{ solverVersion }`. Per version for the same reason as `solveQueue`: the results must come from
+ * the solver version they are filed under.
+ */
+export function verifyQueue(solverVersion: string): string {
+	return `verify-solver-v${solverVersion.replace(/[^\w]/g, '-')}`;
+}
+
 /** PostgreSQL NOTIFY channel of run news (progress, snapshot, status); the payload is the run id. */
 export const RUN_CHANNEL = 'twofold_run';
 

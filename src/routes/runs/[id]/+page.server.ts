@@ -57,7 +57,11 @@ export const actions: Actions = {
 		try {
 			await runs.cancel({ teamId: member.team.id, runId: event.params.id });
 		} catch (e) {
-			if (e instanceof runs.RunRequestError) return { cancelError: e.message };
+			if (e instanceof runs.RunRequestError) {
+				// another team's run (or a malformed id) answers 404 like the page itself
+				if (e.status === 404) error(404, 'Run not found.');
+				return { cancelError: e.message };
+			}
 			throw e;
 		}
 		return { cancelled: true };
@@ -68,7 +72,10 @@ export const actions: Actions = {
 			const run = await runs.rerun({ teamId: member.team.id, runId: event.params.id, userId: member.user.id });
 			return { rerunId: run.id };
 		} catch (e) {
-			if (e instanceof runs.RunRequestError) return { rerunError: e.message };
+			if (e instanceof runs.RunRequestError) {
+				if (e.status === 404) error(404, 'Run not found.');
+				return { rerunError: e.message };
+			}
 			throw e;
 		}
 	}

@@ -1,0 +1,36 @@
+/**
+ * Explanations of the numbers on the run, comparison and case pages, read from the solver's own
+ * catalogues (solver/catalog/design.ts, solver/closures/catalog.ts), so the words cannot drift from
+ * what the solver computes. Browser-safe.
+ */
+import { designCatalog, residualEntry } from '$solver/catalog/design';
+import { closureCatalog, type CatalogEntry } from '$solver/closures/catalog';
+import type { Explanation } from '$lib/components/Explain.svelte';
+
+/** A design number by its id (`overallHoldup`, …), or null for an id without an entry. */
+export function designExplanation(id: string): Explanation | null {
+	const e = designCatalog[id];
+	return e ? { title: e.label, formula: e.formula, unit: e.unit, source: e.source } : null;
+}
+
+/** A residual of a model kind (`height-profile`, `cross-section`). */
+export function residualExplanation(kind: string, id: string): Explanation | null {
+	const e = residualEntry(kind, id);
+	return e ? { title: e.label, formula: e.formula, unit: e.unit, source: e.source } : null;
+}
+
+/** A closure option by the case field it belongs to (`closures.drag`) and its value. */
+export function closureExplanation(path: string, option: string): Explanation | null {
+	const e = (closureCatalog as unknown as Record<string, Record<string, CatalogEntry>>)[path]?.[option];
+	return e ? { title: e.label, formula: e.models, source: e.source } : null;
+}
+
+/** Every option of a closure choice, the chosen one marked: for the choice's own label in the case editor. */
+export function closureChoiceExplanation(path: string, title: string, chosen?: string): Explanation | null {
+	const options = (closureCatalog as unknown as Record<string, Record<string, CatalogEntry>>)[path];
+	if (!options) return null;
+	return {
+		title,
+		items: Object.entries(options).map(([id, e]) => ({ label: e.label, text: e.models, source: e.source, current: id === chosen }))
+	};
+}
