@@ -91,6 +91,20 @@ async function main() {
 	const host = process.env.TWOFOLD_WORKER_HOST || os.hostname();
 	const workerId = `${host}:${process.pid}:${randomBytes(3).toString('hex')}`;
 	const log = (message: string) => console.log(`[worker ${workerId}] ${message}`);
+	// pg-boss records a job's outcome (complete / fail) without awaiting it: while the database is
+	// away (a restart, a dropped network) that write rejects with nobody to catch it, which would end
+	// the process. The run row is the authority and the heartbeat sweeper re-queues a run whose
+	// worker stopped writing, so such a lost job update is logged and the worker carries on; any
+	// other unhandled rejection still ends the process, as it would by default.
+	process.on('unhandledRejection', (reason) => {
+		const e = reason instanceof Error ? reason : new Error(String(reason));
+		if (/pg-boss|pg-pool|node_modules[\\/]pg[\\/]/.test(e.stack ?? '')) {
+			log(`database write of pg-boss failed (${e.message}); the run row stays the authority`);
+			return;
+		}
+		console.error('[worker] unhandled rejection:', e);
+		process.exit(1);
+	});
 
 	// one connection per run slot for its writes, plus a few for claims, sweeps and mail
 	const handle = createDb({ url, max: concurrency + 3, applicationName: 'twofold-worker' });

@@ -80,12 +80,33 @@ function describeTime(o: { step: number; timeS: number }): string {
 /** A job as pg-boss hands it to the worker (`includeMetadata`: how many tries it had). */
 export type SolveJob = PgBoss.Job<SolveJobData> & Partial<Pick<PgBoss.JobWithMetadata<SolveJobData>, 'retryCount' | 'retryLimit'>>;
 
+/** The database server's own error inside `e` (the ORM wraps it as the cause), with its SQLSTATE. */
+function serverError(e: unknown): (Error & { code: string }) | null {
+	for (let cur = e, depth = 0; cur && depth < 5; cur = (cur as { cause?: unknown }).cause, depth++) {
+		const code = (cur as { code?: unknown }).code;
+		if (cur instanceof Error && typeof code === 'string' && /^[0-9A-Z]{5}$/.test(code)) return cur as Error & { code: string };
+	}
+	return null;
+}
+
 /** An error the database server answered with (a SQLSTATE), not a lost or refused connection. */
-export function refusedByDatabase(e: unknown): e is Error & { code: string } {
-	const code = (e as { code?: unknown } | null)?.code;
-	if (typeof code !== 'string' || !/^[0-9A-Z]{5}$/.test(code)) return false;
+export function refusedByDatabase(e: unknown): boolean {
+	const code = serverError(e)?.code;
+	if (!code) return false;
 	// class 08: connection exception; 57: the server shutting down or starting (operator intervention)
 	return !code.startsWith('08') && !code.startsWith('57');
+}
+
+/**
+ * The fault as pg-boss stores it with the job (as JSON): its message only. The ORM's error carries
+ * the failed query's parameters — a snapshot's bytes among them — which are no valid JSON text: the
+ * database refused pg-boss's record of the failure, so the retry never came (and the unhandled
+ * refusal ended the worker).
+ */
+function jobFault(e: unknown): Error {
+	const server = serverError(e);
+	if (server) return new Error(`${server.message} (SQLSTATE ${server.code})`);
+	return new Error(e instanceof Error ? e.message.split('\nparams:')[0].slice(0, 2000) : String(e));
 }
 
 export async function solveJob(ctx: SolveContext, job: SolveJob): Promise<void> {
@@ -396,8 +417,9 @@ export async function solveJob(ctx: SolveContext, job: SolveJob): Promise<void> 
 	}
 	if (fault) {
 		const lastTry = job.retryLimit !== undefined && (job.retryCount ?? 0) >= job.retryLimit;
-		if (lastTry && refusedByDatabase(fault) && (await failAfterRefusedWrites(fault))) return;
-		throw fault;
+		const server = serverError(fault);
+		if (lastTry && server && refusedByDatabase(server) && (await failAfterRefusedWrites(server))) return;
+		throw jobFault(fault);
 	}
 
 	/** Ends the run as failed with the database's refusal; false when even that cannot be written. */
