@@ -79,6 +79,7 @@ function faucetCase(o: { id: string; title: string; timeS: number; reducedModelL
 	return {
 		id: o.id,
 		title: o.title,
+		reference: 'Ransom (1987)',
 		source: 'Ransom (1987), Multiphase Sci. Technol. 3: a 12 m vertical pipe fed with liquid at 10 m/s and α_g = 0.2; analytical solution for massless gas without interfacial friction',
 		what: o.what,
 		run(onProgress) {
@@ -142,6 +143,7 @@ const faucetSteady = faucetCase({
 const sedimentation: VerificationCase = {
 	id: 'sedimentation',
 	title: "Ransom's sedimentation",
+	reference: 'Ransom (1987)',
 	source: 'Ransom (1987): a closed 7.5 m tube at α_g = 0.5 separates; final state hydrostatic, p_bottom = p_top + (ρ_g + ρ_l) g H/2 = 1.36830 × 10⁵ Pa',
 	what: 'A closed tube of gas and liquid at rest separates into liquid below and gas above. Checks the hydrostatic end state, the interface at mid-height, the absence of void overshoot and that the liquid is conserved to round-off.',
 	run(onProgress) {
@@ -194,6 +196,7 @@ const sedimentation: VerificationCase = {
 const columnAtRest: VerificationCase = {
 	id: 'column-at-rest',
 	title: 'A liquid column at rest',
+	reference: 'hydrostatics (exact)',
 	source: 'Hydrostatics: p = p_top e^(M g (H − z_level)/(R T)) + ρ_l g (z_level − z) in the liquid, the isothermal ideal gas above',
 	what: 'The reference column (2 m, 1.5 m of water) without gas for 5 s. The liquid must stay still and the pressure must be hydrostatic to round-off.',
 	run(onProgress) {
@@ -241,6 +244,7 @@ const columnAtRest: VerificationCase = {
 const terminalVelocities: VerificationCase = {
 	id: 'terminal-velocity',
 	title: 'Dilute-limit terminal velocities',
+	reference: 'Clift, Grace & Weber (1978)',
 	source: 'Clift, Grace & Weber (1978), Bubbles, Drops and Particles, Fig. 7.3 (air in contaminated water, readings ±15 %); Schiller & Naumann (1933); Stokes (1851)',
 	what: 'A sparse swarm (U_G = 0.2 mm/s) in the reference column: the slip the solver computes must be the single-bubble terminal velocity of its drag law. With the Tomiyama contaminated law it is compared with the measured curve; with Schiller–Naumann and Stokes drag with an independent root solve of the force balance.',
 	run(onProgress) {
@@ -293,6 +297,7 @@ const terminalVelocities: VerificationCase = {
 const pipeProfile: VerificationCase = {
 	id: 'pipe-profile',
 	title: 'Single-phase pipe flow across the section',
+	reference: 'Colebrook (1939); Nikuradse (1932)',
 	source: 'Colebrook (1939) and Blasius (1913) friction factors of a smooth pipe; velocity-defect law (u_c − U)/u_τ ≈ 4.07 and log law u⁺ = 2.5 ln y⁺ + 5.5 from Nikuradse’s (1932) measurements as given by Schlichting',
 	what: 'The cross-section model without gas: turbulent water flow in a 0.2 m pipe at 0.5 m/s (20 cells) and a 50 mm pipe at 0.4 m/s (10 cells). Checks the wall shear, the mixing-length viscosity and the wall function against smooth-pipe friction and the measured velocity profile.',
 	run(onProgress) {
@@ -350,7 +355,8 @@ const pipeProfile: VerificationCase = {
 const recirculation: VerificationCase = {
 	id: 'recirculation-profile',
 	title: 'Liquid recirculation across the section (analytic profile)',
-	source: 'Analytic solution for a constant eddy viscosity and a parabolic holdup (PHYSICS §7): u(ξ) = u(0)(1 − 4ξ² + 3ξ⁴), u(0) = ᾱ g R²/(24 ν_t), reversal at r/R = 1/√3',
+	reference: 'analytic solution',
+	source: 'Analytic solution of the radial liquid momentum for a constant eddy viscosity and a parabolic holdup: u(ξ) = u(0)(1 − 4ξ² + 3ξ⁴), u(0) = ᾱ g R²/(24 ν_t), reversal at r/R = 1/√3',
 	what: 'The cross-section model’s liquid momentum equation with a prescribed gas profile and no net liquid flow: the buoyant core rises, the liquid falls at the wall. Checks the discretisation of the radial stress, which must converge at second order.',
 	run(onProgress) {
 		const cells = [20, 40, 80];
@@ -394,6 +400,7 @@ const recirculation: VerificationCase = {
 const liftSignChange: VerificationCase = {
 	id: 'lift-sign-change',
 	title: 'Sign change of the lift coefficient',
+	reference: 'Tomiyama et al. (2002)',
 	source: 'Tomiyama, Tamai, Zun & Hosokawa (2002), Chem. Eng. Sci. 57, 1849, with the bubble width of Wellek, Agrawal & Skelland (1966): for air–water C_L changes sign at d = 5.84 mm (Eo_d = 6.061)',
 	what: 'The lift closure the cross-section model uses: bubbles smaller than about 5.8 mm are pushed towards the wall in up-flow, larger ones towards the core.',
 	run(onProgress) {
@@ -432,6 +439,7 @@ const liftSignChange: VerificationCase = {
 const gridStudy: VerificationCase = {
 	id: 'grid-study',
 	title: 'Grid study of the reference case',
+	reference: 'Celik et al. (2008)',
 	source: 'Celik, Ghia, Roache, Freitas, Coleman & Raad (2008), J. Fluids Eng. 130, 078001, with Roache’s (1994) safety factor 1.25',
 	what: 'The one-class reference case (2 m column, 1.5 m of water, air at 0.05 m/s, 4 mm bubbles) to steady state on 100, 200 and 400 cells: apparent order, extrapolated holdup and Grid Convergence Index of the overall holdup.',
 	run(onProgress) {
@@ -480,6 +488,7 @@ const gridStudy: VerificationCase = {
 const churnHoldup: VerificationCase = {
 	id: 'churn-holdup',
 	title: 'Holdup from bubbly to churn-turbulent flow (two bubble classes)',
+	reference: 'Akita & Yoshida (1973); Hikita et al. (1980)',
 	source: 'Akita & Yoshida (1973), Ind. Eng. Chem. Process Des. Dev. 12, 76; Hikita et al. (1980), Chem. Eng. J. 20, 59; two-class model after Krishna & Ellenberger (1996)',
 	what: 'Air–water batch columns of 0.15, 0.3 and 1.0 m (6 m tall, 3 m of water), small + large bubbles, 0.01 to 0.35 m/s: the overall holdup against the mean of the two correlations, and the change of slope at the regime transition.',
 	run(onProgress) {
@@ -533,6 +542,7 @@ const churnHoldup: VerificationCase = {
 const largeBubbleSwarm: VerificationCase = {
 	id: 'large-bubble-swarm',
 	title: 'Rise velocity of the large-bubble swarm',
+	reference: 'Krishna et al. (1999)',
 	source: 'Krishna, Urseanu, van Baten & Ellenberger (1999), Chem. Eng. Sci. 54, 171: V = 0.71 √(g d) · SF · AF, wall factor SF after Collins (1967), cap rise after Davies & Taylor (1950)',
 	what: 'A 0.3 m column at 0.1 m/s: in the bulk the large class must rise at the Krishna swarm velocity less the swarm hindrance of its drag, V √(1 − α).',
 	run(onProgress) {
@@ -574,6 +584,7 @@ const largeBubbleSwarm: VerificationCase = {
 const classConservation: VerificationCase = {
 	id: 'class-conservation',
 	title: 'Gas mass of each bubble class',
+	reference: 'conservation (exact)',
 	source: 'Conservation: the gas of each class changes only by what is fed at the sparger and what leaves at the top',
 	what: 'A 0.3 m column at 0.1 m/s, 20 s from start-up: the gas mass of the small and of the large class in the column against the start plus the net inflow of that class.',
 	run(onProgress) {

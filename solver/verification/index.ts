@@ -37,7 +37,7 @@ export function runVerification(options: { onProgress?: (p: VerificationProgress
 			options.onProgress?.({ fraction: (index + Math.min(1, Math.max(0, fraction))) / cases.length, caseIndex: index, caseCount: cases.length, caseId: c.id, caseTitle: c.title });
 		report(0);
 		const started = performance.now();
-		const head = { id: c.id, title: c.title, source: c.source, what: c.what };
+		const head = { id: c.id, title: c.title, reference: c.reference, source: c.source, what: c.what };
 		try {
 			const outcome = c.run(report);
 			results.push({ ...head, ...outcome, passed: outcomePasses(outcome), durationS: (performance.now() - started) / 1000 });

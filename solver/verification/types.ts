@@ -62,6 +62,8 @@ export interface VerificationCheck {
 export interface VerificationCase {
 	id: string;
 	title: string;
+	/** the short citation for tables: author (year) */
+	reference: string;
 	/** the reference: author (year) and what was taken from it */
 	source: string;
 	/** what is checked, one or two sentences */
@@ -74,6 +76,7 @@ export interface VerificationCase {
 export interface VerificationResult extends VerificationOutcome {
 	id: string;
 	title: string;
+	reference: string;
 	source: string;
 	what: string;
 	passed: boolean;

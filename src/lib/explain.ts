@@ -5,7 +5,21 @@
  */
 import { designCatalog, residualEntry } from '$solver/catalog/design';
 import { closureCatalog, type CatalogEntry } from '$solver/closures/catalog';
-import type { Explanation } from '$lib/components/Explain.svelte';
+
+/** What a number, residual or closure option says about itself: from the solver's catalogues. */
+export interface Explanation {
+	/** heading of the tooltip (defaults to none) */
+	title?: string;
+	/** how it is computed, or what the option models */
+	formula?: string;
+	/** SI unit as the solver writes it (`1` shows as "dimensionless") */
+	unit?: string;
+	source?: string;
+	/** a further line (e.g. the option's scope) */
+	note?: string;
+	/** a list instead of one formula: every option of a choice, the chosen one marked */
+	items?: { label: string; text: string; source?: string; current?: boolean }[];
+}
 
 /** A design number by its id (`overallHoldup`, …), or null for an id without an entry. */
 export function designExplanation(id: string): Explanation | null {

@@ -53,7 +53,7 @@ describe('the verification cases', () => {
 		expect(outcomePasses({ ...base, order: { ...base.order!, pairwise: [0.1, 0.2], observed: 0.2 } })).toBe(false);
 		expect(outcomePasses({ ...base, checks: [{ label: 'x', value: 2, tolerance: 1, unit: '1' }] })).toBe(false);
 		expect(outcomePasses({ ...base, checks: [{ label: 'x', value: 2, tolerance: 1, unit: '1', atLeast: true }] })).toBe(true);
-		const [broken] = runVerification({ cases: [{ id: 'broken', title: 'Broken', source: 'none', what: 'throws', run: () => { throw new Error('no such grid'); } }] });
+		const [broken] = runVerification({ cases: [{ id: 'broken', title: 'Broken', reference: 'none', source: 'none', what: 'throws', run: () => { throw new Error('no such grid'); } }] });
 		expect(broken.passed).toBe(false);
 		expect(broken.failure).toBe('no such grid');
 		expect(Number.isNaN(broken.error)).toBe(true);
