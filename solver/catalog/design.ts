@@ -162,6 +162,65 @@ export const designCatalog: Record<string, QuantityEntry> = {
 		formula: 'dp/dz, set each step so that the section carries the liquid flux exactly (⟨α_l u_l⟩ = U_L)',
 		unit: 'Pa/m',
 		source: 'definition'
+	},
+	// mass transfer along the height profile (transfer.mode other than none)
+	transferRateKgH: {
+		label: 'Transfer rate',
+		formula: 'Σ over cells and classes of k_L a (c* − c) Δz × column area, c* = H(T)(p − p_w) y; positive into the liquid',
+		unit: 'kg/h',
+		source: 'definition (Henry’s law; k_L from Higbie 1935 or Frössling 1938)'
+	},
+	transferEfficiencyPercent: { label: 'Transfer efficiency', formula: 'transfer rate / solute mass flow in the gas fed × 100', unit: '%', source: 'definition' },
+	sotrKgH: {
+		label: 'Standard oxygen transfer rate',
+		formula: 'SOTR = V kLa20 C∞20 = R(0) θ^(20 − T) / (τ Ω): R(0) the rate into oxygen-free, well-mixed water, θ = 1.024, τ = C_s(T)/C_s(20 °C), Ω = p_top/101.325 kPa',
+		unit: 'kg/h',
+		source: 'ASCE/EWRI 2-06; C_s from Benson & Krause (1984)'
+	},
+	sotePercent: { label: 'Standard oxygen transfer efficiency', formula: 'SOTE = SOTR / oxygen mass flow in the gas fed × 100', unit: '%', source: 'ASCE/EWRI 2-06' },
+	sotePerMetrePercentM: { label: 'SOTE per metre of submergence', formula: 'SOTE / clear-liquid level above the sparger', unit: '%/m', source: 'definition (common practice for diffusers)' },
+	transferKLaPerS: {
+		label: 'Volume-averaged kLa',
+		formula: 'Σ_cells Σ_classes k_L a Δz / Σ_cells α_l Δz (per liquid volume), a = 6 α_k/d_k below the free surface',
+		unit: '1/s',
+		source: 'Higbie (1935) or Frössling (1938) k_L; a for spheres'
+	},
+	apparentKLaPerS: {
+		label: 'Re-aeration kLa',
+		formula: 'B/V_l with R(c) = R(0) − B c the rate into a well-mixed liquid of concentration c, each class in its steady state (what a clean-water test measures)',
+		unit: '1/s',
+		source: 'ASCE/EWRI 2-06 model C(t) = C∞ − (C∞ − C₀) e^(−kLa t)'
+	},
+	equilibriumConcentrationKgM3: { label: 'Equilibrium concentration C∞', formula: 'R(0)/B: where the well-mixed liquid stops taking up solute', unit: 'kg/m³', source: 'ASCE/EWRI 2-06 model' },
+	surfaceSaturationKgM3: { label: 'Surface saturation', formula: 'H(T) y_fed (p_top − p_w)', unit: 'kg/m³', source: 'Henry’s law; oxygen from Benson & Krause (1984)' },
+	bottomSaturationKgM3: { label: 'Bottom saturation', formula: 'H(T) y_fed (p_sparger − p_w)', unit: 'kg/m³', source: 'Henry’s law; oxygen from Benson & Krause (1984)' },
+	effectiveSaturationDepthM: {
+		label: 'Effective saturation depth',
+		formula: 'd_e = (C∞/C_s,surface − 1)(p_top − p_w)/(ρ_l g): the depth at which the gas fed is in equilibrium with C∞',
+		unit: 'm',
+		source: 'ASCE/EWRI 2-06 (form from memory)'
+	},
+	meanConcentrationKgM3: { label: 'Mean dissolved concentration', formula: 'Σ α_l c / Σ α_l', unit: 'kg/m³', source: 'definition' },
+	outletConcentrationKgM3: { label: 'Outlet dissolved concentration', formula: 'c of the end cell the liquid leaves from', unit: 'kg/m³', source: 'definition' },
+	outletGasMoleFraction: { label: 'Outlet gas mole fraction', formula: 'gas-flux-weighted solute mole fraction of the classes leaving at the top', unit: '1', source: 'definition' },
+	transferredGasShare: {
+		label: 'Gas share dissolving',
+		formula: 'solute moles transferred / gas moles fed; the gas flow of the hydrodynamics is not reduced by it (dilute transfer)',
+		unit: '1',
+		source: 'definition'
+	},
+	liquidDispersionM2S: {
+		label: 'Liquid axial dispersion',
+		formula: 'D_L = 0.678 D^1.4 U_G^0.3 (Deckwer et al. 1974), 0.35 D^(4/3) (g U_G)^(1/3) (Baird & Rice 1975), or entered',
+		unit: 'm²/s',
+		source: 'Deckwer, Burckhart & Zoll (1974), Chem. Eng. Sci. 29, 2177; Baird & Rice (1975), Chem. Eng. J. 9, 171'
+	},
+	bodensteinNumber: { label: 'Liquid Bodenstein number', formula: '|U_L| H / ((1 − ε) D_L); 0 for a batch liquid', unit: '1', source: 'definition' },
+	wallHeatTransferWM2K: {
+		label: 'Wall heat-transfer coefficient',
+		formula: 'h = 0.1 ρ_l c_p (U_G g μ_l/ρ_l)^(1/4) Pr^(−1/2), i.e. St = 0.1 (Re Fr Pr²)^(−1/4)',
+		unit: 'W/(m²·K)',
+		source: 'Deckwer (1980), Chem. Eng. Sci. 35, 1341 (form and validity from memory)'
 	}
 };
 

@@ -42,7 +42,20 @@ describe('catalogue of design numbers and residuals', () => {
 			),
 			ids: [...heightResidualNames]
 		},
-		{ name: 'a cross-section', kind: 'cross-section', doc: defaultCase('cross-section'), ids: [...crossSectionResidualNames] }
+		{ name: 'a cross-section', kind: 'cross-section', doc: defaultCase('cross-section'), ids: [...crossSectionResidualNames] },
+		{
+			name: 'a height profile with oxygen transfer',
+			kind: 'height-profile',
+			doc: short(
+				(() => {
+					const c = defaultCase();
+					c.sparging.superficialLiquidVelocityMS = -0.01;
+					c.transfer.mode = 'continuous';
+					return c;
+				})()
+			),
+			ids: [...heightResidualNames, 'soluteChangeRate']
+		}
 	];
 
 	for (const r of runs) {
