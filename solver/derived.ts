@@ -8,6 +8,8 @@ import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
 import { regimeFromBand, regimeFromTransition } from './correlations/regime.js';
 import { planClasses } from './height/classes.js';
 import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
+import { bairdRiceLiquidDispersion, deckwerLiquidDispersion } from './correlations/axial-dispersion.js';
+import { saturationConcentrationKgM3, solutes } from './correlations/solubility.js';
 
 export interface DerivedNumbers {
 	/** bubble diameter used by the model (fixed, or Akita–Yoshida 1974), m */
@@ -48,10 +50,31 @@ export interface DerivedNumbers {
 		/** large-bubble swarm velocity, 0.71 √(g d) SF AF, m/s */
 		largeSwarmVelocityMS: number;
 	} | null;
+	/** mass transfer (height profile, mode other than `none`): saturation at the top and at the sparger, liquid dispersion */
+	transfer: {
+		/** saturation concentration with the gas fed at the top pressure (Henry's law), kg/m³ */
+		surfaceSaturationKgM3: number;
+		/** the same at the sparger with the column at rest, kg/m³ */
+		bottomSaturationKgM3: number;
+		solubilitySource: string;
+		/** liquid axial dispersion coefficient, m²/s */
+		dispersionM2S: number;
+		dispersionSource: string;
+	} | null;
 }
 
 export function spargerPressurePaAtRest(c: CaseDocument): number {
 	return c.fluids.topPressurePa + c.fluids.liquid.densityKgM3 * GRAVITY_MS2 * c.geometry.clearLiquidLevelM;
+}
+
+/** The case's liquid axial dispersion coefficient (m²/s) at the sparger gas velocity, by its chosen correlation or as entered. */
+export function liquidDispersionOfCase(c: CaseDocument): { valueM2S: number; source: string } {
+	const t = c.transfer;
+	if (t.dispersion === 'fixed') return { valueM2S: t.dispersionM2S, source: 'entered by the analyst' };
+	const column = { columnDiameterM: c.geometry.diameterM, superficialGasVelocityMS: gasMassFlux(c) / spargerGasDensityAtRest(c) };
+	return t.dispersion === 'deckwer'
+		? { valueM2S: deckwerLiquidDispersion(column), source: 'Deckwer et al. 1974' }
+		: { valueM2S: bairdRiceLiquidDispersion(column), source: 'Baird & Rice 1975' };
 }
 
 /** Gas density at the sparger with the column at rest (ideal gas), kg/m³. */
@@ -106,6 +129,20 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 		? regimeFromTransition({ superficialGasVelocityMS: massFlux / rhoSp, transitionVelocityMS: classes.transitionVelocityMS, source: classes.transitionSource })
 		: regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
 	const dz = c.geometry.heightM / c.numerics.cells;
+	const t = c.transfer;
+	let transfer: DerivedNumbers['transfer'] = null;
+	if (c.kind === 'height-profile' && t.mode !== 'none') {
+		const at = (pressurePa: number) =>
+			saturationConcentrationKgM3({ solute: t.solute, temperatureK: c.fluids.temperatureK, pressurePa, moleFraction: t.inletGasMoleFraction, waterSaturatedGas: t.gasHumidity === 'saturated' });
+		const dispersion = liquidDispersionOfCase(c);
+		transfer = {
+			surfaceSaturationKgM3: at(c.fluids.topPressurePa),
+			bottomSaturationKgM3: at(spargerPressurePaAtRest(c)),
+			solubilitySource: solutes[t.solute].source,
+			dispersionM2S: dispersion.valueM2S,
+			dispersionSource: dispersion.source
+		};
+	}
 	const terminalReynolds = (l.densityKgM3 * ut * d) / l.viscosityPaS;
 	const warnings: string[] = [];
 	if (c.closures.drag === 'stokes' && terminalReynolds > 1) {
@@ -143,6 +180,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 					})
 				: 0,
 		warnings,
-		classes
+		classes,
+		transfer
 	};
 }

@@ -157,5 +157,8 @@ export const closureCatalog = {
 	'bubbles.classes': bubbleClassCatalog,
 	'bubbles.transition': transitionCatalog,
 	'bubbles.largeSizing': largeBubbleSizingCatalog,
-	'bubbles.largeDrag': largeBubbleDragCatalog
+	'bubbles.largeDrag': largeBubbleDragCatalog,
+	'transfer.solute': transferSoluteCatalog,
+	'transfer.dispersion': transferDispersionCatalog,
+	'transfer.massTransferCoefficient': massTransferCoefficientCatalog
 } as const;

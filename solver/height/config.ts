@@ -7,10 +7,9 @@ import { terminalVelocity } from '../closures/drag.js';
 import type { SwarmCorrection } from '../closures/swarm.js';
 import type { VirtualMassModel } from '../closures/virtual-mass.js';
 import type { WallFrictionModel } from '../closures/friction.js';
-import { bubbleDiameter, gasMassFlux, spargerGasDensityAtRest } from '../derived.js';
+import { bubbleDiameter, gasMassFlux, liquidDispersionOfCase, spargerGasDensityAtRest } from '../derived.js';
 import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2 } from '../fluids.js';
 import { planClasses } from './classes.js';
-import { bairdRiceLiquidDispersion, deckwerLiquidDispersion } from '../correlations/axial-dispersion.js';
 import { bensonKrauseWaterVapourPressurePa, solutes, type SoluteProperties } from '../correlations/solubility.js';
 
 /** Bottom end (z = 0): prescribed inflow of both phases, or a closed wall. */
@@ -144,11 +143,7 @@ export interface HeightModelConfig {
 export function transferConfigFromCase(c: CaseDocument): TransferConfig | null {
 	const t = c.transfer;
 	if (t.mode === 'none') return null;
-	const rhoSp = spargerGasDensityAtRest(c);
-	const jg = gasMassFlux(c) / rhoSp;
-	const column = { columnDiameterM: c.geometry.diameterM, superficialGasVelocityMS: jg };
-	const dispersionM2S = t.dispersion === 'fixed' ? t.dispersionM2S : t.dispersion === 'deckwer' ? deckwerLiquidDispersion(column) : bairdRiceLiquidDispersion(column);
-	const dispersionSource = t.dispersion === 'fixed' ? 'entered by the analyst' : t.dispersion === 'deckwer' ? 'Deckwer et al. 1974' : 'Baird & Rice 1975';
+	const { valueM2S: dispersionM2S, source: dispersionSource } = liquidDispersionOfCase(c);
 	const solute = solutes[t.solute];
 	const T = c.fluids.temperatureK;
 	return {

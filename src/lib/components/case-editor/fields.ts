@@ -5,7 +5,7 @@
  */
 import { caseSchema, type CaseDocument, type CaseKind } from '../../../../solver/case.js';
 
-export type SectionId = 'geometry' | 'fluids' | 'sparging' | 'bubbles' | 'closures' | 'numerics';
+export type SectionId = 'geometry' | 'fluids' | 'sparging' | 'bubbles' | 'closures' | 'transfer' | 'numerics';
 
 export const sections: { id: SectionId; title: string }[] = [
 	{ id: 'geometry', title: 'Geometry' },
@@ -13,6 +13,7 @@ export const sections: { id: SectionId; title: string }[] = [
 	{ id: 'sparging', title: 'Sparging' },
 	{ id: 'bubbles', title: 'Bubble classes' },
 	{ id: 'closures', title: 'Closures' },
+	{ id: 'transfer', title: 'Transfer' },
 	{ id: 'numerics', title: 'Numerics' }
 ];
 
@@ -63,7 +64,23 @@ const enumLabels: Record<string, { label: string; help?: string }> = {
 	'numerics.scheme': { label: 'Holdup convection scheme' },
 	'fluids.liquid.name': { label: 'Liquid' },
 	'fluids.gas.name': { label: 'Gas' },
-	'fluids.solute': { label: 'Dissolving component' }
+	'fluids.solute': { label: 'Dissolving component' },
+	'transfer.mode': { label: 'Operating mode', help: 'what the liquid does while the solute transfers' },
+	'transfer.solute': { label: 'Solute (solubility)', help: 'whose Henry constant gives the saturation concentration at the local pressure' },
+	'transfer.gasHumidity': { label: 'Gas fed', help: 'saturated with water vapour, or dry' },
+	'transfer.dispersion': { label: 'Liquid axial dispersion' },
+	'transfer.massTransferCoefficient': { label: 'Liquid-side k_L' }
+};
+
+/** Option texts of enums that are not closures (closures take theirs from the catalogue). */
+export const optionLabels: Record<string, Record<string, string>> = {
+	'transfer.mode': {
+		none: 'None (hydrodynamics only)',
+		batch: 'Batch liquid (re-aeration test)',
+		continuous: 'Continuous liquid feed',
+		steady: 'Steady absorption or stripping'
+	},
+	'transfer.gasHumidity': { saturated: 'Saturated with water vapour', dry: 'Dry' }
 };
 
 function collect(section: SectionId, prefix: string, schema: ZodLike, out: FieldSpec[]) {
@@ -123,7 +140,19 @@ const onlyFor: Record<string, CaseKind> = {
 	'bubbles.transitionHoldup': 'height-profile',
 	'bubbles.largeSizing': 'height-profile',
 	'bubbles.largeDiameterM': 'height-profile',
-	'bubbles.largeDrag': 'height-profile'
+	'bubbles.largeDrag': 'height-profile',
+	// mass transfer is computed by the height-profile model only
+	'transfer.mode': 'height-profile',
+	'transfer.solute': 'height-profile',
+	'transfer.initialConcentrationKgM3': 'height-profile',
+	'transfer.inletConcentrationKgM3': 'height-profile',
+	'transfer.inletGasMoleFraction': 'height-profile',
+	'transfer.gasHumidity': 'height-profile',
+	'transfer.dispersion': 'height-profile',
+	'transfer.dispersionM2S': 'height-profile',
+	'transfer.massTransferCoefficient': 'height-profile',
+	'transfer.liquidHeatCapacityJKgK': 'height-profile',
+	'transfer.liquidThermalConductivityWMK': 'height-profile'
 };
 
 /** Fields that only matter for one choice of another field. */
@@ -137,7 +166,18 @@ const dependsOn: Record<string, (c: CaseDocument) => boolean> = {
 	'bubbles.transitionHoldup': (c) => c.bubbles.classes === 'small-large' && c.bubbles.transition === 'fixed',
 	'bubbles.largeSizing': (c) => c.bubbles.classes === 'small-large',
 	'bubbles.largeDiameterM': (c) => c.bubbles.classes === 'small-large' && c.bubbles.largeSizing === 'fixed',
-	'bubbles.largeDrag': (c) => c.bubbles.classes === 'small-large'
+	'bubbles.largeDrag': (c) => c.bubbles.classes === 'small-large',
+	'transfer.solute': (c) => c.transfer.mode !== 'none',
+	// every mode starts the liquid from it (a steady run forgets it on the way)
+	'transfer.initialConcentrationKgM3': (c) => c.transfer.mode !== 'none',
+	'transfer.inletConcentrationKgM3': (c) => (c.transfer.mode === 'continuous' || c.transfer.mode === 'steady') && c.sparging.superficialLiquidVelocityMS !== 0,
+	'transfer.inletGasMoleFraction': (c) => c.transfer.mode !== 'none',
+	'transfer.gasHumidity': (c) => c.transfer.mode !== 'none',
+	'transfer.dispersion': (c) => c.transfer.mode !== 'none',
+	'transfer.dispersionM2S': (c) => c.transfer.mode !== 'none' && c.transfer.dispersion === 'fixed',
+	'transfer.massTransferCoefficient': (c) => c.transfer.mode !== 'none',
+	'transfer.liquidHeatCapacityJKgK': (c) => c.transfer.mode !== 'none',
+	'transfer.liquidThermalConductivityWMK': (c) => c.transfer.mode !== 'none'
 };
 
 export function isShown(field: FieldSpec, doc: CaseDocument): boolean {

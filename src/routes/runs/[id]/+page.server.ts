@@ -8,6 +8,7 @@ import { columns, snapshots, users } from '$lib/server/db/schema';
 import * as runs from '$lib/server/runs';
 import { timeHistories, type TimeHistory } from '$lib/server/run-results';
 import { measurementsForRun } from '$lib/server/measurements';
+import { analyseRunReaeration } from '$lib/measurements/run-reaeration';
 
 /**
  * The run page. The live part (residuals, progress, current profile) is fetched in the browser
@@ -38,6 +39,11 @@ export const load: PageServerLoad = async (event) => {
 		}
 		histories = timeHistories({ kind: run.caseDocument.kind, snapshots: decoded });
 	}
+	// a batch oxygen run is a re-aeration test in the model: analyse its own series as an uploaded test would be
+	const summary = (run.summary ?? null) as { series?: Record<string, { timeS: number[]; concentrationKgM3: number[] }>; design?: Record<string, { value: number }> } | null;
+	const reaeration = ended
+		? analyseRunReaeration({ doc: run.caseDocument, series: summary?.series?.dissolvedOxygen, surfaceSaturationKgM3: summary?.design?.surfaceSaturationKgM3?.value })
+		: null;
 	const { workerId: _w, jobId: _j, ...visible } = run;
 	return {
 		run: visible,
@@ -46,6 +52,7 @@ export const load: PageServerLoad = async (event) => {
 		canControl: hasRole(member.role, 'analyst'),
 		finalProfile,
 		histories,
+		reaeration,
 		// measurements of the column at this operating point, with this run's error measures
 		measurementOverlay: ended ? await measurementsForRun({ teamId: member.team.id, run, snapshot: finalProfile }) : []
 	};
