@@ -4,12 +4,17 @@ import path from 'node:path';
 import { expect, test } from '@playwright/test';
 import pg from 'pg';
 import { encodeSnapshot as encodeStoredSnapshot } from '../../src/lib/server/runs/codec';
-import { LEAD, signIn } from './demo';
+import { orderText, verificationQuantity } from '../../src/lib/verification';
+import type { VerificationResult } from '../../solver/verification/types';
+import { SOLVER_VERSION } from '../../solver/version';
+import { LEAD, SHOTS, signIn } from './demo';
 
 /**
  * The printable report of a comparison, printed to PDF by Chromium and read back with
  * `pdftotext` (Debian's poppler-utils). The column, runs, measurement and verdict are invented
- * test data written straight into the test database.
+ * test data written straight into the test database. The baseline run carries this solver version,
+ * whose verification the real worker computes (the verification page queues it) before the report
+ * is opened; the other run an invented version with no verification, which the report says plainly.
  */
 
 const OUT = 'artifacts/report';
@@ -59,9 +64,9 @@ test.beforeAll(async () => {
 		);
 		const columnId = col[0].id as string;
 		const runIds: string[] = [];
-		for (const [drag, name, holdup] of [
-			['schiller-naumann', 'Base Schiller-Naumann', 0.118],
-			['tomiyama-contaminated', 'Tomiyama contaminated', 0.131]
+		for (const [drag, name, holdup, version] of [
+			['schiller-naumann', 'Base Schiller-Naumann', 0.118, SOLVER_VERSION],
+			['tomiyama-contaminated', 'Tomiyama contaminated', 0.131, 'test-1.0']
 		] as const) {
 			const doc = await caseDoc(drag, name);
 			const { rows: c } = await client.query(
@@ -78,8 +83,8 @@ test.beforeAll(async () => {
 				}
 			};
 			const { rows: r } = await client.query(
-				`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, 'test-1.0', 'converged', $5) returning id`,
-				[teamId, columnId, c[0].id, JSON.stringify(doc), JSON.stringify(summary)]
+				`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, $5, 'converged', $6) returning id`,
+				[teamId, columnId, c[0].id, JSON.stringify(doc), version, JSON.stringify(summary)]
 			);
 			await client.query(`insert into snapshots (run_id, step, simulated_time_s, is_final, data) values ($1, 1000, 60, true, $2)`, [
 				r[0].id,
@@ -111,19 +116,43 @@ test.beforeAll(async () => {
 	}
 });
 
-test('the comparison report prints to a three-page PDF with the expected text', async ({ page }) => {
+/** The cached verification of this solver version, as the worker stored it. */
+async function cachedVerification(): Promise<{ results: VerificationResult[] }> {
+	const client = new pg.Client({ connectionString: databaseUrl() });
+	await client.connect();
+	try {
+		const { rows } = await client.query(`select status, results from verification_results where solver_version = $1`, [SOLVER_VERSION]);
+		expect(rows[0]?.status).toBe('done');
+		return { results: rows[0].results as VerificationResult[] };
+	} finally {
+		await client.end();
+	}
+}
+
+test('the comparison report prints to a four-page PDF with the expected text', async ({ page }) => {
+	test.setTimeout(180_000);
 	await signIn(page, LEAD);
+
+	// opening the verification page queues this version's verification for the worker (when not cached yet)
+	await page.goto('/verification');
+	await expect(page.getByTestId('verification-state')).toHaveAttribute('data-status', 'done', { timeout: 120_000 });
+	const { results } = await cachedVerification();
 
 	await page.goto(`/compare/${comparisonId}/report`);
 	await expect(page.getByRole('heading', { name: `Drag laws on ${tag}` })).toBeVisible();
 	fs.mkdirSync(OUT, { recursive: true });
 	await page.screenshot({ path: `${OUT}/report-screen.png`, fullPage: true });
+	const section = page.getByTestId('report-verification');
+	await expect(section.getByRole('heading', { name: 'Verification of the solver' })).toBeVisible();
+	await expect(section.getByTestId('report-verification-case')).toHaveCount(results.length);
+	fs.mkdirSync(SHOTS, { recursive: true });
+	await section.screenshot({ path: `${SHOTS}/report-verification.png` });
 	await page.emulateMedia({ media: 'print' });
 	const pdfPath = path.join(OUT, 'comparison-report.pdf');
 	await page.pdf({ path: pdfPath, preferCSSPageSize: true, printBackground: true });
 
 	const info = execFileSync('pdfinfo', [pdfPath], { encoding: 'utf8' });
-	expect(info).toMatch(/Pages:\s+3\n/);
+	expect(info).toMatch(/Pages:\s+4\n/);
 	const pageText = (n: number) => execFileSync('pdftotext', ['-f', String(n), '-l', String(n), '-layout', pdfPath, '-'], { encoding: 'utf8' });
 
 	const p1 = pageText(1);
@@ -151,4 +180,27 @@ test('the comparison report prints to a three-page PDF with the expected text', 
 	expect(p3).toContain('Cautions');
 	expect(p3).toContain('screening estimates from a one-dimensional model');
 	expect(p3).toContain('solver version test-1.0');
+	expect(p3).toContain(`solver version ${SOLVER_VERSION}`);
+
+	// the verification of both versions on a page of its own, with the cached numbers
+	const p4 = pageText(4);
+	execFileSync('pdftoppm', ['-f', '4', '-l', '4', '-r', '80', '-png', '-singlefile', pdfPath, path.join(OUT, 'comparison-report-page-4')]);
+	expect(p4).toContain('Verification of the solver');
+	expect(p4).toContain(`Solver ${SOLVER_VERSION}`);
+	expect(p4).toMatch(/Computed \d{1,2} \w{3} \d{4}, \d\d:\d\d UTC/);
+	const passed = results.filter((r) => r.passed).length;
+	expect(p4).toContain(`${passed} of ${results.length} cases pass`);
+	const lines = p4.split('\n');
+	for (const r of results) {
+		// pdftotext -layout keeps a table row on one line (a long title may wrap onto the next)
+		const at = lines.findIndex((l) => l.includes(r.title.slice(0, 24)));
+		expect(at, r.title).toBeGreaterThan(-1);
+		const row = lines.slice(at, at + 2).join(' ');
+		expect(row, r.id).toContain(verificationQuantity(r.error, r.errorUnit));
+		expect(row, r.id).toContain(`≤ ${verificationQuantity(r.tolerance, r.errorUnit)}`);
+		expect(row, r.id).toContain(r.passed ? 'pass' : 'fail');
+		if (r.order) expect(row, r.id).toContain(orderText(r.order.observed));
+	}
+	expect(p4.replace(/\s+/g, ' ')).toContain('Not yet computed for solver test-1.0 — open the verification page');
+	expect(p4).toContain('/verification');
 });

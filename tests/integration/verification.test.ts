@@ -19,6 +19,7 @@ import { defaultCase } from '../../solver/case.js';
 import { verificationCases } from '../../solver/verification/index.js';
 import type { VerificationResult } from '../../solver/verification/types.js';
 import type { VerificationStatus } from '../../src/lib/server/verification/index.js';
+import { orderText, verificationQuantity } from '../../src/lib/verification.js';
 
 const NEXT = `${SOLVER_VERSION}-next-test`;
 const OLD = 'old-0.9-test';
@@ -37,6 +38,33 @@ async function status(client: TestClient): Promise<VerificationStatus | null> {
 	const res = await client.get('/verification/status', { accept: 'application/json' });
 	expect(res.status).toBe(200);
 	return ((await res.json()) as { verification: VerificationStatus | null }).verification;
+}
+
+/** Server-rendered HTML to its text: no comments, tags as spaces, entities of the report decoded, spaces collapsed. */
+const textOf = (html: string) =>
+	html
+		.replace(/<!--[\s\S]*?-->/g, '')
+		.replace(/<[^>]+>/g, ' ')
+		.replace(/&amp;/g, '&')
+		.replace(/&lt;/g, '<')
+		.replace(/&gt;/g, '>')
+		.replace(/&#39;|&apos;/g, "'")
+		.replace(/&quot;/g, '"')
+		.replace(/\s+/g, ' ')
+		.trim();
+const cellsOf = (rowHtml: string) => [...rowHtml.matchAll(/<td[^>]*>([\s\S]*?)<\/td>/g)].map((m) => textOf(m[1]));
+/** The report's verification section (up to the end of the report). */
+function sectionOf(html: string): string {
+	const at = html.indexOf('data-testid="report-verification"');
+	expect(at, 'the verification section').toBeGreaterThan(-1);
+	return html.slice(html.lastIndexOf('<section', at), html.indexOf('</section>', at));
+}
+/** One solver version's part of that section. */
+function versionBlock(section: string, version: string): string {
+	const parts = section.split('data-testid="report-verification-version"').slice(1);
+	const part = parts.find((p) => p.includes(`data-version="${version}"`));
+	expect(part, `the part of solver ${version}`).toBeDefined();
+	return part!;
 }
 
 /** Poll the status endpoint as the page does until the verification ends; the progress values seen. */
@@ -148,7 +176,7 @@ describe('the verification page', () => {
 		expect(recomputed.queuedAt.getTime()).toBeGreaterThan(computed.queuedAt.getTime());
 	}, 240_000);
 
-	it('shows the verification of the runs’ solver version on the printable report, and a link for a version with none', async () => {
+	it('shows the cached verification of the runs’ solver version on the printable report, and says plainly when a version has none', async () => {
 		const { pool } = handle;
 		const tag = `VER-${Date.now().toString(36)}`;
 		const { rows: col } = await pool.query(`insert into columns (team_id, tag, service, diameter_m, height_m) values ($1, $2, 'verification report test', 0.2, 2) returning id`, [team.team.id, tag]);
@@ -179,12 +207,39 @@ describe('the verification page', () => {
 		const res = await viewer.get(`/compare/${cmp[0].id}/report`);
 		expect(res.status).toBe(200);
 		const html = await res.text();
-		const section = html.slice(html.indexOf('data-testid="report-verification"'));
-		expect(section).toContain(`Verification of solver ${SOLVER_VERSION}`);
-		expect(section).toContain(`${verificationCases.length} of ${verificationCases.length} cases pass`);
-		expect(section).toContain('Grid study of the reference case');
-		expect(section).toContain(`No verification results are cached for solver ${OLD}`);
-		expect(section).toContain('/verification');
+		const section = sectionOf(html);
+		expect(textOf(section)).toMatch(/^Verification of the solver /);
+		expect(section).toContain('href="/verification"');
+
+		// this version: every cached case, with the numbers of its stored row, formatted as on the verification page
+		const cached = (await row(SOLVER_VERSION))!;
+		expect(cached.status).toBe('done');
+		const results = cached.results as VerificationResult[];
+		const done = versionBlock(section, SOLVER_VERSION);
+		expect(done).toContain('data-status="done"');
+		const doneText = textOf(done);
+		expect(doneText).toMatch(/Computed \d{1,2} \w{3} \d{4}, \d\d:\d\d UTC/);
+		expect(doneText).toContain(`${results.length} of ${results.length} cases pass`);
+		const rows = [...done.matchAll(/<tr[^>]*data-case="([^"]+)"[^>]*>([\s\S]*?)<\/tr>/g)].map((m) => ({ id: m[1], cells: cellsOf(m[2]) }));
+		expect(rows.map((r) => r.id)).toEqual(results.map((r) => r.id));
+		for (const r of results) {
+			const cells = rows.find((x) => x.id === r.id)!.cells;
+			expect(cells, r.id).toEqual([r.title, r.reference, verificationQuantity(r.error, r.errorUnit), `≤ ${verificationQuantity(r.tolerance, r.errorUnit)}`, r.passed ? 'pass' : 'fail', orderText(r.order?.observed)]);
+			expect(cells[2], `${r.id}: a finite error with its unit`).toMatch(/^\d[\d.e−-]*( (%|mm))?$/);
+		}
+		const faucet = rows.find((x) => x.id === 'faucet-transient')!.cells;
+		expect(Number(faucet[5])).toBeGreaterThan(0.4);
+		// a relative error carries its per cent
+		expect(rows.find((x) => x.id === 'column-at-rest')!.cells[2]).toMatch(/ %$/);
+		// a case without a grid sequence shows no order
+		expect(rows.find((x) => x.id === 'column-at-rest')!.cells[5]).toBe('—');
+
+		// a version with nothing cached: said plainly, with the link, not left out
+		const none = versionBlock(section, OLD);
+		expect(none).toContain('data-status="none"');
+		expect(none).not.toContain('data-case=');
+		expect(textOf(none)).toContain(`Not yet computed for solver ${OLD} — open the verification page`);
+		expect(none).toContain('href="/verification"');
 		// the report never queues a verification itself
 		expect(await row(OLD)).toBeNull();
 	}, 60_000);

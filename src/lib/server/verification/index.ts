@@ -1,7 +1,7 @@
 /**
  * The verification page's server side (PRODUCT screen 8): the cached results of this app's solver version,
  * queued for a worker when there are none yet (or they failed), their progress while a worker computes
- * them, and the summary the printable comparison report shows for the solver versions of its runs.
+ * them; `verificationViews` serves the page and the printable comparison report (the solver versions of its runs).
  * Callers check the member's role first (`requireMember(event, 'viewer')`); the results are the same for
  * every team (they depend on the solver version only).
  */
@@ -65,6 +65,38 @@ async function liveWorkersOf(solverVersion: string): Promise<number> {
 	return n;
 }
 
+/** A solver version with no cached verification at all (never computed, or never asked for). */
+export interface NoVerification {
+	solverVersion: string;
+	status: null;
+	/** live workers registered with this solver version */
+	liveWorkers: number;
+}
+
+/** No chart: what a summary (the printable report) carries instead of the plotted series. */
+const NO_CHART: VerificationResult['chart'] = { x: [], xLabel: '', yLabel: '', series: [] };
+
+/**
+ * The cached verification of each of `solverVersions` (in that order, duplicates once), as it is: never
+ * queued from here. The verification page shows its own version through this, the printable report the
+ * versions of its runs. `charts: false` leaves out the plotted series (a summary needs only the numbers).
+ */
+export async function verificationViews(solverVersions: string[], options: { charts?: boolean } = {}): Promise<Array<VerificationView | NoVerification>> {
+	const versions = [...new Set(solverVersions)];
+	if (versions.length === 0) return [];
+	const rows = await db.select().from(verificationResults).where(inArray(verificationResults.solverVersion, versions));
+	return Promise.all(
+		versions.map(async (solverVersion) => {
+			const row = rows.find((r) => r.solverVersion === solverVersion);
+			const liveWorkers = await liveWorkersOf(solverVersion);
+			if (!row) return { solverVersion, status: null, liveWorkers } satisfies NoVerification;
+			let results = row.status === 'done' ? ((row.results ?? []) as VerificationResult[]) : null;
+			if (results && options.charts === false) results = results.map((r) => ({ ...r, chart: NO_CHART }));
+			return { ...statusOf(row, liveWorkers), results } satisfies VerificationView;
+		})
+	);
+}
+
 /**
  * The verification of this app's solver version as the page shows it. Opening the page queues the
  * computation when there is no row yet, or the last attempt failed (or was orphaned): one transaction
@@ -72,14 +104,12 @@ async function liveWorkersOf(solverVersion: string): Promise<number> {
  */
 export async function openVerification(): Promise<VerificationView & { queuedNow: boolean }> {
 	const solverVersion = verificationVersion();
-	let row = await getVerificationRow(db, solverVersion);
+	const row = await getVerificationRow(db, solverVersion);
 	let queuedNow = false;
-	if (!row || row.status !== 'done') {
-		queuedNow = await queueVerification({ pool: appHandle.pool, boss: await appBoss(), solverVersion });
-		if (queuedNow) row = await getVerificationRow(db, solverVersion);
-	}
-	if (!row) throw new Error(`the verification row of solver ${solverVersion} vanished`);
-	return { ...statusOf(row, await liveWorkersOf(solverVersion)), results: row.status === 'done' ? ((row.results ?? []) as VerificationResult[]) : null, queuedNow };
+	if (!row || row.status !== 'done') queuedNow = await queueVerification({ pool: appHandle.pool, boss: await appBoss(), solverVersion });
+	const [view] = await verificationViews([solverVersion]);
+	if (!view || view.status === null) throw new Error(`the verification row of solver ${solverVersion} vanished`);
+	return { ...view, queuedNow };
 }
 
 /** The state of this app's solver version's verification without the results (the page polls it). */
@@ -100,38 +130,4 @@ export async function verificationStatus(): Promise<VerificationStatus | null> {
 		.where(eq(verificationResults.solverVersion, solverVersion));
 	if (!row) return null;
 	return statusOf({ ...row, results: null }, await liveWorkersOf(solverVersion));
-}
-
-export interface VerificationSummary {
-	solverVersion: string;
-	/** null: nothing cached for this version */
-	status: VerificationRow['status'] | null;
-	finishedAt: string | null;
-	/** when done: one line per case */
-	cases: { id: string; title: string; error: number | null; errorUnit: string; tolerance: number | null; observedOrder: number | null; passed: boolean }[];
-}
-
-/** The verification summaries of some solver versions (the printable report: the versions of its runs). */
-export async function verificationSummaries(solverVersions: string[]): Promise<VerificationSummary[]> {
-	const versions = [...new Set(solverVersions)];
-	if (versions.length === 0) return [];
-	const rows = await db.select().from(verificationResults).where(inArray(verificationResults.solverVersion, versions));
-	return versions.map((v) => {
-		const row = rows.find((r) => r.solverVersion === v);
-		const results = row?.status === 'done' ? ((row.results ?? []) as VerificationResult[]) : [];
-		return {
-			solverVersion: v,
-			status: row?.status ?? null,
-			finishedAt: row?.finishedAt?.toISOString() ?? null,
-			cases: results.map((r) => ({
-				id: r.id,
-				title: r.title,
-				error: Number.isFinite(r.error) ? r.error : null,
-				errorUnit: r.errorUnit,
-				tolerance: Number.isFinite(r.tolerance) ? r.tolerance : null,
-				observedOrder: r.order && Number.isFinite(r.order.observed) ? r.order.observed : null,
-				passed: r.passed
-			}))
-		};
-	});
 }

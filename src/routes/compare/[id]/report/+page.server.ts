@@ -2,7 +2,7 @@ import { error } from '@sveltejs/kit';
 import type { PageServerLoad } from './$types';
 import { isUuid, requireMember } from '$lib/server/guard';
 import { loadComparisonReport } from '$lib/server/report';
-import { verificationSummaries } from '$lib/server/verification';
+import { verificationVersion, verificationViews } from '$lib/server/verification';
 
 export const load: PageServerLoad = async (event) => {
 	const { team } = await requireMember(event, 'viewer');
@@ -10,6 +10,9 @@ export const load: PageServerLoad = async (event) => {
 	const report = await loadComparisonReport({ teamId: team.id, comparisonId: event.params.id });
 	if (!report) error(404, 'Comparison not found.');
 	// the verification of the solver versions that produced the runs, as cached (never queued from here)
-	const verification = await verificationSummaries(report.runs.map((r) => r.solverVersion));
-	return { report, generatedAt: new Date(), verification };
+	const verification = await verificationViews(
+		report.runs.map((r) => r.solverVersion),
+		{ charts: false }
+	);
+	return { report, generatedAt: new Date(), verification, appSolverVersion: verificationVersion() };
 };
