@@ -162,6 +162,18 @@ export const designOrder = [
 	'liquidMassErrorRel'
 ];
 
+/**
+ * The unit a design number is shown in, wherever it is shown (run page, comparison, report): pressures in
+ * kPa, dissolved concentrations in mg/L (1 mg/L = 1e-3 kg/m³, the unit oxygen specifications are written in),
+ * dimensionless as a dash; everything else in its SI unit.
+ */
+export function designUnit(id: string, unit: string): { unit: string; factor: number } {
+	if (unit === 'Pa') return { unit: 'kPa', factor: 1e-3 };
+	if (unit === 'kg/m³' && /(Concentration|Saturation)KgM3$/.test(id)) return { unit: 'mg/L', factor: 1e3 };
+	if (unit === '1') return { unit: '–', factor: 1 };
+	return { unit, factor: 1 };
+}
+
 export function designRank(id: string): number {
 	return designOrder.indexOf(id) + 1 || designOrder.length + 1;
 }

@@ -26,8 +26,24 @@ describe('case editor fields read from the case schema', () => {
 		expect(isShown(lift, defaultCase('cross-section'))).toBe(true);
 	});
 
-	it('places every field in one of the six sections', () => {
+	it('places every field in one of the seven sections', () => {
 		const ids = new Set(fields.map((f) => f.section));
-		expect([...ids].sort()).toEqual(['bubbles', 'closures', 'fluids', 'geometry', 'numerics', 'sparging']);
+		expect([...ids].sort()).toEqual(['bubbles', 'closures', 'fluids', 'geometry', 'numerics', 'sparging', 'transfer']);
+	});
+
+	it('shows the transfer fields of the chosen operating mode, on height profiles only', () => {
+		const shown = (doc: ReturnType<typeof defaultCase>) => fields.filter((f) => f.section === 'transfer' && isShown(f, doc)).map((f) => f.path);
+		const none = defaultCase('height-profile');
+		expect(shown(none)).toEqual(['transfer.mode']);
+		expect(shown(defaultCase('cross-section'))).toEqual([]);
+		const batch = { ...none, transfer: { ...none.transfer, mode: 'batch' as const } };
+		expect(shown(batch)).toContain('transfer.initialConcentrationKgM3');
+		expect(shown(batch)).not.toContain('transfer.inletConcentrationKgM3');
+		expect(shown(batch)).not.toContain('transfer.dispersionM2S');
+		const fed = { ...batch, transfer: { ...batch.transfer, mode: 'continuous' as const, dispersion: 'fixed' as const }, sparging: { ...none.sparging, superficialLiquidVelocityMS: -0.01 } };
+		expect(shown(fed)).toContain('transfer.inletConcentrationKgM3');
+		expect(shown(fed)).toContain('transfer.dispersionM2S');
+		// every transfer field carries a unit or a set of options
+		for (const f of fields.filter((x) => x.section === 'transfer')) expect(f.kind === 'enum' ? f.options?.length : f.unit).toBeTruthy();
 	});
 });
