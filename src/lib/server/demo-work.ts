@@ -1,7 +1,7 @@
 /**
  * Finished demo work for the invented demo team, so the first sign-in shows the product working:
- * on the pilot column C-101 a base case and three drag-law variants with runs computed here by the
- * real solver (the same step loop, residual rows, snapshots and summary a worker stores), a
+ * on the pilot column C-101 a base case and three drag-law variants, and a clean-water re-aeration
+ * test (batch oxygen transfer), with runs computed here by the real solver (the same step loop, residual rows, snapshots and summary a worker stores), a
  * comparison of the drag laws awaiting the lead's sign-off, a U_g sweep study whose members are
  * computed the same way, and two uploads of invented data labelled as such (a holdup profile and a
  * re-aeration test). Local installs only; `npm start` seeds it once, the test database never unless
@@ -170,6 +170,16 @@ export async function seedDemoWork(db: Db, o: { teamId: string; analystId: strin
 			runIds.push(await insertComputedRun(tx, { teamId: o.teamId, columnId: pilot.id, caseId, caseDoc: doc, userId: o.analystId }));
 			count++;
 		}
+
+		// a clean-water re-aeration test in the model, at the operating point of the demo upload below: its run page
+		// analyses the run's own dissolved-oxygen series as the upload's page analyses the invented one
+		const aeration = pilotCase('C-101 re-aeration — clean water, batch');
+		aeration.numerics.endTimeS = 300;
+		aeration.transfer.mode = 'batch';
+		aeration.transfer.massTransferCoefficient = 'frossling';
+		const aerationCaseId = await storeCase(aeration);
+		await insertComputedRun(tx, { teamId: o.teamId, columnId: pilot.id, caseId: aerationCaseId, caseDoc: aeration, userId: o.analystId });
+		count++;
 
 		// invented uploads, labelled as demo data
 		const [profile] = await tx
