@@ -18,7 +18,10 @@ import {
 	turbulentDispersionModels,
 	virtualMassModels,
 	wallFrictionModels,
-	wallLubricationModels
+	wallLubricationModels,
+	transferSolutes,
+	liquidDispersionModels,
+	massTransferCoefficientModels
 } from '../../solver/case.js';
 import { graceVelocity, mendelsonVelocity } from '../../solver/correlations/terminal-velocity.js';
 import { CLIFT_GRACE_WEBER_CONTAMINATED } from '../../solver/verification/problems.js';
@@ -152,7 +155,10 @@ describe('closure catalogue', () => {
 			[closureCatalog['bubbles.classes'], bubbleClassModels],
 			[closureCatalog['bubbles.transition'], transitionCorrelations],
 			[closureCatalog['bubbles.largeSizing'], largeBubbleSizings],
-			[closureCatalog['bubbles.largeDrag'], largeBubbleDrags]
+			[closureCatalog['bubbles.largeDrag'], largeBubbleDrags],
+			[closureCatalog['transfer.solute'], transferSolutes],
+			[closureCatalog['transfer.dispersion'], liquidDispersionModels],
+			[closureCatalog['transfer.massTransferCoefficient'], massTransferCoefficientModels]
 		];
 		// every catalogued field is covered above
 		expect(pairs.length).toBe(Object.keys(closureCatalog).length);
