@@ -128,6 +128,12 @@ async function main() {
 	} catch (e) {
 		out.study = { unavailable: (e as Error).message };
 	}
+	try {
+		const load = await import('./load.js');
+		out.load = await load.benchLoad();
+	} catch (e) {
+		out.load = { unavailable: (e as Error).message };
+	}
 	console.log(JSON.stringify(out, null, 2));
 }
 

@@ -81,6 +81,8 @@ export interface SseEvent {
 	id: string;
 	event: string;
 	data: any; // eslint-disable-line @typescript-eslint/no-explicit-any
+	/** `Date.now()` when the chunk that completed this event arrived */
+	receivedAtMs: number;
 }
 
 /**
@@ -156,12 +158,13 @@ export class SseFollower {
 		let buffer = '';
 		try {
 			for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
+				const receivedAtMs = Date.now();
 				buffer += decoder.decode(chunk, { stream: true });
 				let cut: number;
 				while ((cut = buffer.indexOf('\n\n')) >= 0) {
 					const block = buffer.slice(0, cut);
 					buffer = buffer.slice(cut + 2);
-					const e: Partial<SseEvent> = {};
+					const e: Partial<SseEvent> = { receivedAtMs };
 					for (const line of block.split('\n')) {
 						if (line.startsWith('id: ')) e.id = line.slice(4);
 						else if (line.startsWith('event: ')) e.event = line.slice(7);
