@@ -8,23 +8,33 @@ export interface CompareRun {
 	id: string;
 	label: string;
 	/** the run's frozen case document (closures, numerics …) */
-	caseDocument: { closures: Record<string, unknown>; bubbles?: Record<string, unknown>; numerics?: Record<string, unknown>; kind?: string };
+	caseDocument: { closures: Record<string, unknown>; bubbles?: Record<string, unknown>; transfer?: Record<string, unknown>; numerics?: Record<string, unknown>; kind?: string };
 	design: Record<string, { value: number; unit: string; label: string }>;
 }
 
 export interface ClosureRow {
+	/** dotted path in the case document, e.g. `closures.drag` */
 	key: string;
 	values: unknown[];
 	/** true when not every run has the same value */
 	differs: boolean;
 }
 
-/** One row per closure setting, flagged where the compared runs disagree. */
-export function closureTable(runs: CompareRun[]): ClosureRow[] {
-	const keys = new Set<string>();
-	for (const r of runs) for (const k of Object.keys(r.caseDocument.closures ?? {})) keys.add(k);
+/** The value at a dotted path of a case document (`closures.drag`, `transfer.mode`). */
+function valueAt(doc: unknown, path: string): unknown {
+	return path.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined), doc);
+}
+
+/**
+ * One row per model choice, flagged where the compared runs disagree: the given dotted paths of the
+ * case document (the screen passes the editor's closure, bubble-class and transfer fields), or
+ * every closure setting when none are given.
+ */
+export function closureTable(runs: CompareRun[], paths?: string[]): ClosureRow[] {
+	const keys = new Set<string>(paths ?? []);
+	if (!paths) for (const r of runs) for (const k of Object.keys(r.caseDocument.closures ?? {})) keys.add(`closures.${k}`);
 	return [...keys].map((key) => {
-		const values = runs.map((r) => r.caseDocument.closures?.[key]);
+		const values = runs.map((r) => valueAt(r.caseDocument, key));
 		const first = JSON.stringify(values[0]);
 		return { key, values, differs: values.some((v) => JSON.stringify(v) !== first) };
 	});

@@ -5,9 +5,12 @@
  * own series. Screenshots go to artifacts/screenshots (git-ignored).
  */
 import { expect, test } from '@playwright/test';
-import { ANALYST, SHOTS, signIn } from './demo';
+import { ANALYST, LEAD, SHOTS, signIn } from './demo';
 
-test.describe.configure({ timeout: 240_000 });
+test.describe.configure({ mode: 'serial', timeout: 240_000 });
+
+let caseUrl = '';
+let firstRunId = '';
 
 const number = async (text: Promise<string | null>) => Number((await text)?.replace(/[^0-9.eE+−-]/g, '').replace('−', '-'));
 
@@ -64,6 +67,8 @@ test('a batch re-aeration test set up in the editor, run by the worker and analy
 
 	await page.getByTestId('queue-run').click();
 	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	firstRunId = page.url().split('/').pop()!;
+	caseUrl = (await page.locator('a[href^="/cases/"]').first().getAttribute('href'))!;
 	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
 
 	// the transfer design numbers, each explaining itself
@@ -92,4 +97,48 @@ test('a batch re-aeration test set up in the editor, run by the worker and analy
 	await page.screenshot({ path: `${SHOTS}/transfer-21-run-page.png`, fullPage: true });
 	await page.getByTestId('design-numbers').screenshot({ path: `${SHOTS}/transfer-22-run-design.png` });
 	await context.close();
+});
+
+test('the lead compares the rigid and the mobile interface and sees the transfer choice and its effect', async ({ browser }) => {
+	expect(caseUrl).toMatch(/^\/cases\//);
+	const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+	const analyst = await context.newPage();
+	await signIn(analyst, ANALYST);
+	await analyst.goto(caseUrl);
+	await analyst.waitForLoadState('networkidle');
+	await analyst.getByTestId('field-transfer.massTransferCoefficient').selectOption('higbie');
+	await analyst.getByTestId('queue-run').click();
+	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	const secondRunId = analyst.url().split('/').pop()!;
+	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
+	await context.close();
+
+	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+	const lead = await leadContext.newPage();
+	await signIn(lead, LEAD);
+	await lead.getByRole('link', { name: 'Compare', exact: true }).click();
+	await lead.getByTestId('compare-column').selectOption({ label: 'C-101' });
+	await lead.getByTestId('compare-start').click();
+	for (const id of [firstRunId, secondRunId]) await lead.locator(`input[name="runIds"][value="${id}"]`).check();
+	await lead.locator(`input[name="baselineRunId"][value="${firstRunId}"]`).check();
+	await lead.getByTestId('comparison-name').fill('C-101 k_L model check');
+	await lead.getByTestId('save-comparison').click();
+	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
+
+	// the transfer choices are model choices like the closures: the one that differs is marked
+	const differing = lead.getByTestId('closure-table').locator('tr[data-differs="true"]');
+	await expect(differing).toHaveCount(1);
+	await expect(differing).toContainText('Liquid-side k_L');
+	await expect(differing).toContainText('Frössling (rigid interface)');
+	await expect(differing).toContainText('Higbie penetration');
+	await expect(lead.getByTestId('closure-table')).toContainText('Batch liquid (re-aeration test)');
+	// a mobile interface transfers more (common practice: a factor of about 3–6 for millimetre bubbles, as the solver's
+	// closure test states): the SOTR rises well above the rigid-interface baseline
+	const delta = await lead.getByTestId('delta-sotrKgH-1').innerText();
+	expect(delta.startsWith('+')).toBe(true);
+	const pct = Number(delta.match(/\(\+([0-9.]+) %\)/)?.[1]);
+	expect(pct).toBeGreaterThan(50);
+	await expect(lead.getByTestId('compare-design')).toContainText('mg/L');
+	await lead.screenshot({ path: `${SHOTS}/transfer-30-comparison.png`, fullPage: true });
+	await leadContext.close();
 });

@@ -11,8 +11,19 @@ const run = (id: string, drag: string, holdup: number): CompareRun => ({
 describe('comparison helpers', () => {
 	it('flags the closure settings that differ between runs and only those', () => {
 		const rows = closureTable([run('a', 'schiller-naumann', 0.2), run('b', 'tomiyama-pure', 0.18)]);
-		expect(rows.find((r) => r.key === 'drag')).toMatchObject({ differs: true, values: ['schiller-naumann', 'tomiyama-pure'] });
-		expect(rows.find((r) => r.key === 'lift')?.differs).toBe(false);
+		expect(rows.find((r) => r.key === 'closures.drag')).toMatchObject({ differs: true, values: ['schiller-naumann', 'tomiyama-pure'] });
+		expect(rows.find((r) => r.key === 'closures.lift')?.differs).toBe(false);
+	});
+
+	it('compares the choices it is given by path, beyond the closures', () => {
+		const a = { ...run('a', 'schiller-naumann', 0.2), caseDocument: { closures: { drag: 'schiller-naumann' }, transfer: { mode: 'batch', massTransferCoefficient: 'higbie' } } };
+		const b = { ...run('b', 'schiller-naumann', 0.2), caseDocument: { closures: { drag: 'schiller-naumann' }, transfer: { mode: 'batch', massTransferCoefficient: 'frossling' } } };
+		const rows = closureTable([a, b], ['closures.drag', 'transfer.mode', 'transfer.massTransferCoefficient']);
+		expect(rows.map((r) => [r.key, r.differs])).toEqual([
+			['closures.drag', false],
+			['transfer.mode', false],
+			['transfer.massTransferCoefficient', true]
+		]);
 	});
 
 	it('gives each run its delta against the baseline and none for the baseline itself', () => {
