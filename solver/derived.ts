@@ -152,6 +152,18 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	if (c.kind === 'height-profile' && vm) {
 		warnings.push('Without virtual mass the level zone of the height profile is weakly damped; a run with fast bubbles can fail');
 	}
+	if (l.viscosityPaS > 0.1) {
+		// measured with the default case (2 m, 0.2 m, 4 mm small bubbles, U_g 0.05 m/s): from 0.5 Pa·s the run with the
+		// large-bubble swarm drag fails with a negative pressure near the sparger within a second; below, the slow small
+		// bubbles swell the level to the outlet
+		warnings.push(
+			`The holdup and bubble-class descriptions are checked against correlations for low-viscosity liquids; at ${l.viscosityPaS.toPrecision(2)} Pa·s treat the results as outside their range${
+				c.kind === 'height-profile' && c.bubbles.classes === 'small-large' && c.bubbles.largeDrag === 'krishna-swarm' && l.viscosityPaS >= 0.4
+					? ', and expect the large-bubble swarm drag to fail near the sparger (try the single-cap drag)'
+					: ''
+			}`
+		);
+	}
 	if (c.closures.interfacialPressureCoefficient === 0) {
 		warnings.push('With no interfacial pressure the one-dimensional two-fluid model is not well-posed (complex characteristics)');
 	}

@@ -142,4 +142,16 @@ describe('fluid presets and derived numbers', () => {
 		expect(d.warnings.some((w) => /Stokes drag is valid for Re/.test(w))).toBe(true);
 		expect(d.warnings.some((w) => /virtual mass/.test(w))).toBe(true);
 	});
+
+	it('warns that a very viscous liquid is outside the checked range, and where the large-bubble drag fails', () => {
+		const c = defaultCase();
+		c.fluids.preset = null;
+		c.fluids.liquid.viscosityPaS = 1;
+		// the failure the warning names is the one tests/solver/extreme-cases.test.ts records for 1 Pa·s
+		expect(derivedNumbers(c).warnings.filter((w) => /low-viscosity liquids/.test(w) && /large-bubble swarm drag/.test(w))).toHaveLength(1);
+		c.fluids.liquid.viscosityPaS = 0.2;
+		expect(derivedNumbers(c).warnings.filter((w) => /low-viscosity liquids/.test(w) && !/swarm drag/.test(w))).toHaveLength(1);
+		c.fluids.liquid.viscosityPaS = 1.002e-3;
+		expect(derivedNumbers(c).warnings.filter((w) => /low-viscosity/.test(w))).toEqual([]);
+	});
 });
