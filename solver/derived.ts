@@ -152,6 +152,12 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	if (c.kind === 'height-profile' && vm) {
 		warnings.push('Without virtual mass the level zone of the height profile is weakly damped; a run with fast bubbles can fail');
 	}
+	if (c.kind === 'height-profile' && t.mode !== 'none' && t.massTransferCoefficient === 'higbie' && d < 0.003) {
+		// common practice (from memory): bubbles of a few millimetres in tap water have a rigid, contaminated interface
+		warnings.push(
+			`Bubbles of ${(d * 1000).toPrecision(2)} mm in tap or process water usually transfer as rigid spheres: the mobile-interface Higbie k_L can overstate the transfer several times (Frössling is the rigid-interface choice)`
+		);
+	}
 	if (l.viscosityPaS > 0.1) {
 		// measured with the default case (2 m, 0.2 m, 4 mm small bubbles, U_g 0.05 m/s): from 0.5 Pa·s the run with the
 		// large-bubble swarm drag fails with a negative pressure near the sparger within a second; below, the slow small

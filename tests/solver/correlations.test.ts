@@ -143,6 +143,18 @@ describe('fluid presets and derived numbers', () => {
 		expect(d.warnings.some((w) => /virtual mass/.test(w))).toBe(true);
 	});
 
+	it('warns that Higbie k_L overstates the transfer of small bubbles in tap water', () => {
+		const c = defaultCase();
+		c.transfer.mode = 'batch';
+		c.bubbles.diameterM = 0.002;
+		expect(derivedNumbers(c).warnings.filter((w) => /Higbie/.test(w))).toHaveLength(1);
+		c.transfer.massTransferCoefficient = 'frossling';
+		expect(derivedNumbers(c).warnings.filter((w) => /Higbie/.test(w))).toEqual([]);
+		c.transfer.massTransferCoefficient = 'higbie';
+		c.bubbles.diameterM = 0.005;
+		expect(derivedNumbers(c).warnings.filter((w) => /Higbie/.test(w))).toEqual([]);
+	});
+
 	it('warns that a very viscous liquid is outside the checked range, and where the large-bubble drag fails', () => {
 		const c = defaultCase();
 		c.fluids.preset = null;
