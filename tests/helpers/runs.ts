@@ -86,6 +86,35 @@ export interface SseEvent {
 }
 
 /**
+ * Reads server-sent events from a response body as the app writes them: blocks ended by a blank
+ * line, each with `id: `, `event: ` and one `data: ` line of JSON; blocks without an event (comments)
+ * are skipped. Calls `onEvent` with each event until it returns true, then returns true; returns
+ * false when the stream ends first. A failed read (an aborted request too) is thrown.
+ */
+export async function readSseEvents(body: ReadableStream<Uint8Array>, onEvent: (e: SseEvent) => boolean): Promise<boolean> {
+	const decoder = new TextDecoder();
+	let buffer = '';
+	for await (const chunk of body as unknown as AsyncIterable<Uint8Array>) {
+		const receivedAtMs = Date.now();
+		buffer += decoder.decode(chunk, { stream: true });
+		let cut: number;
+		while ((cut = buffer.indexOf('\n\n')) >= 0) {
+			const block = buffer.slice(0, cut);
+			buffer = buffer.slice(cut + 2);
+			const e: Partial<SseEvent> = { receivedAtMs };
+			for (const line of block.split('\n')) {
+				if (line.startsWith('id: ')) e.id = line.slice(4);
+				else if (line.startsWith('event: ')) e.event = line.slice(7);
+				else if (line.startsWith('data: ')) e.data = JSON.parse(line.slice(6));
+			}
+			if (!e.event) continue;
+			if (onEvent(e as SseEvent)) return true;
+		}
+	}
+	return false;
+}
+
+/**
  * Follows a run's live stream like EventSource: on a dropped or refused connection it waits and
  * reconnects, sending the last id it saw as `Last-Event-ID`, until it has seen the final status.
  */
@@ -154,30 +183,12 @@ export class SseFollower {
 			throw new Error(`HTTP ${res.status}`);
 		}
 		this.connections++;
-		const decoder = new TextDecoder();
-		let buffer = '';
 		try {
-			for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
-				const receivedAtMs = Date.now();
-				buffer += decoder.decode(chunk, { stream: true });
-				let cut: number;
-				while ((cut = buffer.indexOf('\n\n')) >= 0) {
-					const block = buffer.slice(0, cut);
-					buffer = buffer.slice(cut + 2);
-					const e: Partial<SseEvent> = { receivedAtMs };
-					for (const line of block.split('\n')) {
-						if (line.startsWith('id: ')) e.id = line.slice(4);
-						else if (line.startsWith('event: ')) e.event = line.slice(7);
-						else if (line.startsWith('data: ')) e.data = JSON.parse(line.slice(6));
-					}
-					if (!e.event) continue;
-					this.events.push(e as SseEvent);
-					if (this.ended) {
-						controller.abort();
-						return;
-					}
-				}
-			}
+			const ended = await readSseEvents(res.body, (e) => {
+				this.events.push(e);
+				return this.ended;
+			});
+			if (ended) controller.abort();
 		} catch (err) {
 			if (!controller.signal.aborted) throw err;
 		}

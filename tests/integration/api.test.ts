@@ -27,6 +27,7 @@ import { openTestDb } from '../helpers/db.js';
 import { signedInClient, TestClient } from '../helpers/http.js';
 import { ALL_ROLES, createTestTeam, type TestTeam } from '../helpers/team.js';
 import { startWorker, waitFor, type WorkerProcess } from '../helpers/workers.js';
+import { readSseEvents, type SseEvent } from '../helpers/runs.js';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { apiTokens, auditLog, cases, columns, comparisons, measurements, memberships, residuals, runs, snapshots, teams, users, type Role } from '../../src/lib/server/db/schema.js';
 import { encodeSnapshot } from '../../src/lib/server/runs/codec.js';
@@ -551,12 +552,6 @@ describe('tokens that do not count', () => {
 
 // ------------------------------------------------------------------ a run from a script, live
 
-interface SseEvent {
-	id: string;
-	event: string;
-	data: Json;
-}
-
 async function readEvents(o: { token: string; path: string; until: (e: SseEvent) => boolean; timeoutMs?: number }): Promise<SseEvent[]> {
 	const controller = new AbortController();
 	const timer = setTimeout(() => controller.abort(), o.timeoutMs ?? 60_000);
@@ -564,28 +559,14 @@ async function readEvents(o: { token: string; path: string; until: (e: SseEvent)
 	if (o.path.startsWith(API)) expectDocumented('GET', new URL(o.path, app.baseUrl), res.status, res.headers, null);
 	expect(res.status).toBe(200);
 	const events: SseEvent[] = [];
-	const decoder = new TextDecoder();
-	let buffer = '';
 	try {
-		for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
-			buffer += decoder.decode(chunk, { stream: true });
-			let cut: number;
-			while ((cut = buffer.indexOf('\n\n')) >= 0) {
-				const block = buffer.slice(0, cut);
-				buffer = buffer.slice(cut + 2);
-				const e: Partial<SseEvent> = {};
-				for (const line of block.split('\n')) {
-					if (line.startsWith('id: ')) e.id = line.slice(4);
-					else if (line.startsWith('event: ')) e.event = line.slice(7);
-					else if (line.startsWith('data: ')) e.data = JSON.parse(line.slice(6));
-				}
-				if (!e.event) continue;
-				events.push(e as SseEvent);
-				if (o.until(e as SseEvent)) {
-					controller.abort();
-					return events;
-				}
-			}
+		const done = await readSseEvents(res.body!, (e) => {
+			events.push(e);
+			return o.until(e);
+		});
+		if (done) {
+			controller.abort();
+			return events;
 		}
 	} catch (err) {
 		if (!controller.signal.aborted) throw err;

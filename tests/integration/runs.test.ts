@@ -3,7 +3,7 @@
  * processes (`tsx worker/index.ts`) started and killed by this file.
  *
  * Reference for "identical results": the same case driven in this process by the solver library
- * itself (`createSimulation` + `step()` to the end), which is what an uninterrupted run computes.
+ * itself (`solveHere` in tests/helpers/runs.ts), which is what an uninterrupted run computes.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
@@ -13,39 +13,25 @@ import { TestClient, signedInClient } from '../helpers/http.js';
 import { waitForMail } from '../helpers/mail.js';
 import { startWorker as startWorkerProcess, waitFor, type WorkerProcess } from '../helpers/workers.js';
 import { createTestTeam, type TestTeam } from '../helpers/team.js';
+import {
+	ENDED,
+	expectedSteps,
+	getRunRow as runRow,
+	readSseEvents,
+	referenceCase,
+	smallCase,
+	solveHere,
+	storedSteps as stepsStored,
+	waitForStatus as waitForRunStatus,
+	type SseEvent
+} from '../helpers/runs.js';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { cases, checkpoints, columns, memberships, outgoingMail, residuals, runs, snapshots, teams } from '../../src/lib/server/db/schema.js';
 import { decodeSnapshot, encodeSnapshot } from '../../src/lib/server/runs/codec.js';
-import { storesResidualStep } from '../../worker/jobs/solve-protocol.js';
-import { createSimulation, defaultCase, type CaseDocument } from '../../solver/index.js';
-import type { Residuals, Results } from '../../solver/types.js';
+import type { CaseDocument } from '../../solver/index.js';
 
 
 // ------------------------------------------------------------------ cases used here
-
-/** 1 m column, 40 cells: converges to steady state in a few hundred steps (well under a second). */
-function smallCase(name = 'small'): CaseDocument {
-	const c = defaultCase('height-profile');
-	c.name = name;
-	c.geometry.heightM = 1;
-	c.geometry.clearLiquidLevelM = 0.7;
-	c.numerics.cells = 40;
-	c.numerics.endTimeS = 60;
-	c.numerics.snapshotIntervalS = 1;
-	return c;
-}
-
-/**
- * The reference case of the solver issue (air–water, 2 m column, 0.2 m diameter, 1.5 m clear level,
- * 100 cells): a few hundred steps. Crash, cancel and wall-time tests run it on a worker paced at
- * `PACE_MS` per step (wall time only; the numbers are unchanged), so it lasts a few seconds.
- */
-function referenceCase(name = 'reference'): CaseDocument {
-	const c = defaultCase('height-profile');
-	c.name = name;
-	c.numerics.snapshotIntervalS = 2;
-	return c;
-}
 
 const PACE_MS = '6';
 
@@ -55,19 +41,6 @@ function divergingCase(): CaseDocument {
 	c.numerics.cflNumber = 1;
 	c.sparging.superficialGasVelocityMS = 1;
 	return c;
-}
-
-/** The uninterrupted reference: the solver library driven here, keeping the residuals of the stored steps. */
-function solveHere(caseDoc: CaseDocument): { results: Results; residualsByStep: Map<number, Residuals> } {
-	const sim = createSimulation(caseDoc);
-	const residualsByStep = new Map<number, Residuals>();
-	for (;;) {
-		const s = sim.step();
-		const ended = s.status !== 'running';
-		if (ended || storesResidualStep(sim.state.step)) residualsByStep.set(sim.state.step, { ...sim.residuals() });
-		if (ended) break;
-	}
-	return { results: sim.results(), residualsByStep };
 }
 
 // ------------------------------------------------------------------ worker processes
@@ -80,12 +53,6 @@ function startWorker(app: RunningApp, env: Record<string, string> = {}): Promise
 
 // ------------------------------------------------------------------ small helpers
 
-interface SseEvent {
-	id: string;
-	event: string;
-	data: any; // eslint-disable-line @typescript-eslint/no-explicit-any
-}
-
 /** Reads an SSE response until `until(event)` is true or the stream is aborted; returns the events read. */
 async function readSse(o: { client: TestClient; path: string; lastEventId?: string; until: (e: SseEvent, all: SseEvent[]) => boolean; timeoutMs?: number }): Promise<SseEvent[]> {
 	const controller = new AbortController();
@@ -96,28 +63,14 @@ async function readSse(o: { client: TestClient; path: string; lastEventId?: stri
 	expect(res.status).toBe(200);
 	expect(res.headers.get('content-type')).toContain('text/event-stream');
 	const events: SseEvent[] = [];
-	const decoder = new TextDecoder();
-	let buffer = '';
 	try {
-		for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
-			buffer += decoder.decode(chunk, { stream: true });
-			let cut: number;
-			while ((cut = buffer.indexOf('\n\n')) >= 0) {
-				const block = buffer.slice(0, cut);
-				buffer = buffer.slice(cut + 2);
-				const e: Partial<SseEvent> = {};
-				for (const line of block.split('\n')) {
-					if (line.startsWith('id: ')) e.id = line.slice(4);
-					else if (line.startsWith('event: ')) e.event = line.slice(7);
-					else if (line.startsWith('data: ')) e.data = JSON.parse(line.slice(6));
-				}
-				if (!e.event) continue;
-				events.push(e as SseEvent);
-				if (o.until(e as SseEvent, events)) {
-					controller.abort();
-					return events;
-				}
-			}
+		const done = await readSseEvents(res.body!, (e) => {
+			events.push(e);
+			return o.until(e, events);
+		});
+		if (done) {
+			controller.abort();
+			return events;
 		}
 	} catch (err) {
 		if (!controller.signal.aborted) throw err;
@@ -128,7 +81,6 @@ async function readSse(o: { client: TestClient; path: string; lastEventId?: stri
 	return events;
 }
 
-const ENDED = ['converged', 'finished', 'failed', 'cancelled'];
 const isFinalStatus = (e: SseEvent) => e.event === 'status' && ENDED.includes(e.data.status);
 
 // ------------------------------------------------------------------ the suite
@@ -152,34 +104,15 @@ async function storeCase(doc: CaseDocument): Promise<string> {
 	return row.id;
 }
 
+const getRunRow = (runId: string) => runRow(handle.db, runId);
+const waitForStatus = (runId: string, statuses: string[], timeoutMs?: number) => waitForRunStatus(handle.db, runId, statuses, timeoutMs);
+const storedSteps = (runId: string) => stepsStored(handle.db, runId);
+
 async function queueOverHttp(doc: CaseDocument): Promise<string> {
 	const caseId = await storeCase(doc);
 	const res = await analyst.postJson('/runs', { caseId });
 	expect(res.status, await res.clone().text()).toBe(201);
 	return ((await res.json()) as { run: { id: string } }).run.id;
-}
-
-async function getRunRow(runId: string) {
-	const [row] = await handle.db.select().from(runs).where(eq(runs.id, runId));
-	return row;
-}
-
-async function waitForStatus(runId: string, statuses: string[], timeoutMs = 60_000) {
-	return waitFor(async () => {
-		const r = await getRunRow(runId);
-		return statuses.includes(r.status) ? r : null;
-	}, { timeoutMs, what: `run ${runId} to reach ${statuses.join('/')}` });
-}
-
-async function storedSteps(runId: string): Promise<number[]> {
-	const rows = await handle.db.select({ step: residuals.step }).from(residuals).where(eq(residuals.runId, runId)).orderBy(asc(residuals.step));
-	return rows.map((r) => r.step);
-}
-
-function expectedSteps(lastStep: number): number[] {
-	const steps: number[] = [];
-	for (let s = 1; s <= lastStep; s++) if (s === lastStep || storesResidualStep(s)) steps.push(s);
-	return steps;
 }
 
 beforeAll(async () => {
