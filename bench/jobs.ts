@@ -33,19 +33,10 @@ import { createSolverPool, type SolverPool } from '../worker/jobs/solver-pool.js
 import type { ThreadMessage } from '../worker/jobs/solve-protocol.js';
 import { defaultCase, type CaseDocument } from '../solver/index.js';
 
+import { stats } from './stats.js';
+
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
-function percentile(sorted: number[], p: number): number {
-	if (sorted.length === 0) return NaN;
-	const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
-	return sorted[i];
-}
-
-function stats(values: number[]) {
-	const s = [...values].sort((a, b) => a - b);
-	const round = (x: number) => Math.round(x * 10) / 10;
-	return { count: s.length, p50: round(percentile(s, 50)), p95: round(percentile(s, 95)), max: round(s[s.length - 1] ?? NaN) };
-}
 
 function smallCase(): CaseDocument {
 	const c = defaultCase('height-profile');

@@ -34,15 +34,9 @@ import { apiTokens, cases, columns, residuals, teams, users } from '../src/lib/s
 import { RUN_CHANNEL } from '../src/lib/server/runs/jobs.js';
 import type { Role } from '../src/lib/server/db/schema.js';
 
-function percentile(sorted: number[], p: number): number {
-	if (sorted.length === 0) return NaN;
-	return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
-}
-const round = (x: number, d = 1) => Math.round(x * 10 ** d) / 10 ** d;
-function stats(values: number[]) {
-	const s = [...values].sort((a, b) => a - b);
-	return { count: s.length, p50: round(percentile(s, 50)), p95: round(percentile(s, 95)), p99: round(percentile(s, 99)), max: round(s[s.length - 1] ?? NaN) };
-}
+import { round, stats as sampleStats } from './stats.js';
+
+const stats = (values: number[]) => sampleStats(values, { p99: true });
 
 const cookieOf = (c: TestClient) => [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
 

@@ -25,17 +25,10 @@ import { createStudy } from '../src/lib/server/studies/commands.js';
 import { createBoss, ensureQueue } from '../src/lib/server/runs/jobs.js';
 import { defaultCase, type CaseDocument } from '../solver/index.js';
 
+import { round, stats } from './stats.js';
+
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
-function percentile(sorted: number[], p: number): number {
-	if (sorted.length === 0) return NaN;
-	return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
-}
-const round = (x: number, d = 1) => Math.round(x * 10 ** d) / 10 ** d;
-function stats(values: number[]) {
-	const s = [...values].sort((a, b) => a - b);
-	return { count: s.length, p50: round(percentile(s, 50)), p95: round(percentile(s, 95)), max: round(s[s.length - 1] ?? NaN) };
-}
 
 function startWorker(url: string, host: string): Promise<ChildProcess> {
 	const child = spawn(process.execPath, ['--import', 'tsx', 'worker/index.ts'], {

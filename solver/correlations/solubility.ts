@@ -3,7 +3,7 @@
  * pressure. Oxygen from the Benson & Krause (1984) saturation equation (PHYSICS §13.2), other gases from the
  * Sander (2023) compilation. The partial pressure is y (p − p_w) for a gas saturated with water vapour, y p for a dry one.
  */
-import { GAS_CONSTANT_J_MOL_K, NORMAL_PRESSURE_PA } from '../fluids.js';
+import { GAS_CONSTANT_J_MOL_K, GRAVITY_MS2, NORMAL_PRESSURE_PA } from '../fluids.js';
 
 /** Mole fraction of oxygen in dry air (PHYSICS §14, from memory). */
 export const OXYGEN_IN_AIR = 0.20946;
@@ -90,4 +90,15 @@ export function saturationConcentrationKgM3(o: { solute: SoluteProperties['id'];
 export function dimensionlessSolubility(solute: SoluteProperties['id'], temperatureK: number): number {
 	const s = solutes[solute];
 	return (s.henryKgM3Pa(temperatureK) / s.molarMassKgMol) * GAS_CONSTANT_J_MOL_K * temperatureK;
+}
+
+/**
+ * Effective saturation depth, ASCE/EWRI 2-06: the depth below the surface at which the gas fed is in equilibrium with
+ * the equilibrium concentration C∞, from C∞ = C_s,top (p_top + ρ g d_e − p_w)/(p_top − p_w), m (NaN without a
+ * surface saturation).
+ */
+export function effectiveSaturationDepthM(o: { equilibriumKgM3: number; surfaceSaturationKgM3: number; topPressurePa: number; vapourPressurePa: number; liquidDensityKgM3: number }): number {
+	return o.surfaceSaturationKgM3 > 0
+		? ((o.equilibriumKgM3 / o.surfaceSaturationKgM3 - 1) * Math.max(o.topPressurePa - o.vapourPressurePa, 0)) / (o.liquidDensityKgM3 * GRAVITY_MS2)
+		: Number.NaN;
 }

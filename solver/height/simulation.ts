@@ -30,8 +30,8 @@ import { hikitaHoldup } from '../correlations/churn.js';
 import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 import { SoluteTransport } from './transfer.js';
 import { deckwerWallHeatTransfer } from '../correlations/heat-transfer.js';
-import { bensonKrauseOxygenSaturationKgM3 } from '../correlations/solubility.js';
-import { GRAVITY_MS2, NORMAL_PRESSURE_PA } from '../fluids.js';
+import { bensonKrauseOxygenSaturationKgM3, effectiveSaturationDepthM } from '../correlations/solubility.js';
+import { NORMAL_PRESSURE_PA } from '../fluids.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
@@ -676,7 +676,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		const cRef = surface > 0 ? surface : this.concentrationScale;
 		const slope = (r0 - tr.uniformLiquidRate(cRef)) / cRef;
 		const cInf = slope > 0 ? r0 / slope : Number.NaN;
-		const depth = surface > 0 ? ((cInf / surface - 1) * Math.max(topP - t.vapourPressurePa, 0)) / (cfg.liquidDensityKgM3 * GRAVITY_MS2) : Number.NaN;
+		const depth = effectiveSaturationDepthM({ equilibriumKgM3: cInf, surfaceSaturationKgM3: surface, topPressurePa: topP, vapourPressurePa: t.vapourPressurePa, liquidDensityKgM3: cfg.liquidDensityKgM3 });
 		const soluteFed = (t.inletGasMoleFraction * o.gasMassFluxKgM2S * t.solute.molarMassKgMol) / cfg.gasMolarMassKgMol;
 		const gasMolesFed = o.gasMassFluxKgM2S / cfg.gasMolarMassKgMol;
 		const jl = this.caseDoc.sparging.superficialLiquidVelocityMS;

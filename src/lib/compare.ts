@@ -3,6 +3,7 @@
  * numbers against the baseline, and the spread of a profile across runs as a band.
  */
 import { interpolateLinear } from './measurements/compare.js';
+import { getPath } from './components/case-editor/fields.js';
 
 export interface CompareRun {
 	id: string;
@@ -20,11 +21,6 @@ export interface ClosureRow {
 	differs: boolean;
 }
 
-/** The value at a dotted path of a case document (`closures.drag`, `transfer.mode`). */
-function valueAt(doc: unknown, path: string): unknown {
-	return path.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined), doc);
-}
-
 /**
  * One row per model choice, flagged where the compared runs disagree: the given dotted paths of the
  * case document (the screen passes the editor's closure, bubble-class and transfer fields), or
@@ -34,7 +30,7 @@ export function closureTable(runs: CompareRun[], paths?: string[]): ClosureRow[]
 	const keys = new Set<string>(paths ?? []);
 	if (!paths) for (const r of runs) for (const k of Object.keys(r.caseDocument.closures ?? {})) keys.add(`closures.${k}`);
 	return [...keys].map((key) => {
-		const values = runs.map((r) => valueAt(r.caseDocument, key));
+		const values = runs.map((r) => getPath(r.caseDocument, key));
 		const first = JSON.stringify(values[0]);
 		return { key, values, differs: values.some((v) => JSON.stringify(v) !== first) };
 	});

@@ -19,3 +19,13 @@ export async function signIn(page: Page, email: string) {
 	await page.getByRole('button', { name: 'Sign in' }).click();
 	await expect(page.getByRole('navigation').getByText('Sign out')).toBeVisible();
 }
+
+/** From a signed-in page: Columns → C-101 → New case, waiting until the editor has hydrated. */
+export async function openNewCaseOfPilot(page: Page) {
+	await page.getByRole('link', { name: 'Columns', exact: true }).click();
+	await expect(page.getByRole('heading', { name: 'Columns' })).toBeVisible();
+	await page.getByRole('link', { name: 'C-101', exact: true }).click();
+	await page.getByTestId('new-case').click();
+	await expect(page.getByTestId('case-editor')).toBeVisible();
+	await page.waitForLoadState('networkidle');
+}

@@ -5,7 +5,7 @@
  * own series. Screenshots go to artifacts/screenshots (git-ignored).
  */
 import { expect, test } from '@playwright/test';
-import { ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
 
 test.describe.configure({ mode: 'serial', timeout: 240_000 });
 
@@ -18,12 +18,7 @@ test('a batch re-aeration test set up in the editor, run by the worker and analy
 	const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
 	const page = await context.newPage();
 	await signIn(page, ANALYST);
-	await page.getByRole('link', { name: 'Columns', exact: true }).click();
-	await expect(page.getByRole('heading', { name: 'Columns' })).toBeVisible();
-	await page.getByRole('link', { name: 'C-101', exact: true }).click();
-	await page.getByTestId('new-case').click();
-	await expect(page.getByTestId('case-editor')).toBeVisible();
-	await page.waitForLoadState('networkidle');
+	await openNewCaseOfPilot(page);
 
 	// without transfer the section holds the mode alone
 	const section = page.getByTestId('section-transfer');

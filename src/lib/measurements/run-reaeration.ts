@@ -8,8 +8,7 @@
  */
 import type { CaseDocument } from '$solver/case';
 import { gasMassFlux } from '$solver/derived';
-import { GRAVITY_MS2 } from '$solver/fluids';
-import { bensonKrauseWaterVapourPressurePa, solutes } from '$solver/correlations/solubility';
+import { bensonKrauseWaterVapourPressurePa, effectiveSaturationDepthM, solutes } from '$solver/correlations/solubility';
 import { analyseReaeration, fitReaeration, truncateReaerationSeries, type ReaerationAnalysis } from './reaeration.js';
 
 export interface RunReaeration {
@@ -47,8 +46,7 @@ export function analyseRunReaeration(o: {
 	if (!a.ok) return a;
 	const pw = doc.transfer.gasHumidity === 'saturated' ? bensonKrauseWaterVapourPressurePa(doc.fluids.temperatureK) : 0;
 	const surface = o.surfaceSaturationKgM3 ?? Number.NaN;
-	// C∞ = C_s,top (p_top + ρ g d_e − p_w)/(p_top − p_w): the ASCE/EWRI 2-06 definition of the effective saturation depth
-	const depth = surface > 0 ? ((a.analysis.fit.saturationKgM3.value / surface - 1) * Math.max(topPa - pw, 0)) / (doc.fluids.liquid.densityKgM3 * GRAVITY_MS2) : Number.NaN;
+	const depth = effectiveSaturationDepthM({ equilibriumKgM3: a.analysis.fit.saturationKgM3.value, surfaceSaturationKgM3: surface, topPressurePa: topPa, vapourPressurePa: pw, liquidDensityKgM3: doc.fluids.liquid.densityKgM3 });
 	const oxygenFedKgS = ((doc.transfer.inletGasMoleFraction * gasMassFlux(doc) * solutes.oxygen.molarMassKgMol) / doc.fluids.gas.molarMassKgMol) * areaM2;
 	return {
 		ok: true,
