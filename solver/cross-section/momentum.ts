@@ -13,8 +13,11 @@
  * two-fluid form. Axis: symmetry (zero stress). Wall: τ_w = λ u of the first cell, λ from the
  * wall function or μ/(Δr/2) for a resolved no-slip wall.
  *
- * The gas equation has no radial coupling, so u_g is eliminated cell by cell,
- * u_g = a u_l + b + c G, and the liquid equation becomes tridiagonal. It is linear in G:
+ * With several bubble classes k (PHYSICS §8.8) each has its own gas equation, drag and virtual mass,
+ * all sharing G; the liquid carries Σ_k F_D,k − F_VM,k and its fraction is α_l = 1 − Σ_k α_k.
+ *
+ * The gas equations have no radial coupling, so each u_g,k is eliminated cell by cell,
+ * u_g,k = a_k u_l + b_k + c_k G, and the liquid equation becomes tridiagonal. It is linear in G:
  * u_l = u⁰ + G u¹ (one matrix, two right-hand sides), and G follows from the liquid flux
  * constraint ⟨α_l u_l⟩ = U_l exactly, not iteratively.
  */
@@ -27,7 +30,7 @@ export interface AxialMomentumInput {
 	liquidDensityKgM3: number;
 	gasDensityKgM3: number;
 	gravityMS2: number;
-	/** gas holdup per cell (new time level) */
+	/** gas holdup per cell (new time level); with several classes the sum over the classes */
 	holdup: Float64Array;
 	/** stress weight per face (length N + 1), normally α_l at the face; index 0 and N unused */
 	stressWeight: Float64Array;
@@ -49,9 +52,25 @@ export interface AxialMomentumInput {
 	gasVelocity: Float64Array;
 	/** scratch space, length ≥ 8 N */
 	work: Float64Array;
+	/**
+	 * Several bubble classes: each with its own holdup, virtual mass, drag linearisation and velocities
+	 * (old and output). When given, the one-class fields `virtualMassCoefficient`, `dragSlope`, `dragOffset`,
+	 * `gasVelocityOld` and `gasVelocity` are ignored.
+	 */
+	classes?: readonly GasClassMomentum[];
 }
 
-/** Solve both axial momentum equations for one step; returns G = −dp/dz, Pa/m. */
+/** One bubble class in the axial momentum step. */
+export interface GasClassMomentum {
+	holdup: Float64Array;
+	virtualMassCoefficient: Float64Array;
+	dragSlope: Float64Array;
+	dragOffset: Float64Array;
+	gasVelocityOld: Float64Array;
+	gasVelocity: Float64Array;
+}
+
+/** Solve the axial momentum equations of the liquid and every gas class for one step; returns G = −dp/dz, Pa/m. */
 export function solveAxialMomentum(o: AxialMomentumInput): number {
 	const { grid, holdup } = o;
 	const n = grid.cells;
@@ -60,6 +79,10 @@ export function solveAxialMomentum(o: AxialMomentumInput): number {
 	const rg = o.gasDensityKgM3;
 	const g = o.gravityMS2;
 	const inv = o.dtS === Infinity ? 0 : 1 / o.dtS;
+	const classes: readonly GasClassMomentum[] = o.classes ?? [
+		{ holdup, virtualMassCoefficient: o.virtualMassCoefficient, dragSlope: o.dragSlope, dragOffset: o.dragOffset, gasVelocityOld: o.gasVelocityOld, gasVelocity: o.gasVelocity }
+	];
+	const nc = classes.length;
 	const w = o.work;
 	const lower = w.subarray(0, n);
 	const diag = w.subarray(n, 2 * n);
@@ -69,24 +92,36 @@ export function solveAxialMomentum(o: AxialMomentumInput): number {
 	const u0 = w.subarray(5 * n, 6 * n);
 	const u1 = w.subarray(6 * n, 7 * n);
 	const scratch = w.subarray(7 * n, 8 * n);
-	// the gas relation u_g = a u_l + b + c G is rebuilt after the solve from the same numbers
+	// the gas relations u_g,k = a_k u_l + b_k + c_k G are rebuilt after the solve from the same numbers
 	for (let i = 0; i < n; i++) {
-		const a = holdup[i];
-		const al = 1 - a;
+		const al = 1 - holdup[i];
 		const v = grid.volumes[i];
-		const cvm = o.virtualMassCoefficient[i];
-		const mg = (rg + cvm * rl) * inv;
-		const cc = cvm * rl * inv;
-		const dd = o.dragSlope[i];
-		const ee = o.dragOffset[i];
-		const den = mg + dd;
-		const ga = (cc + dd) / den;
-		const gb = (mg * o.gasVelocityOld[i] - cc * o.liquidVelocityOld[i] - rg * g - ee) / den;
-		const gc = 1 / den;
-		const ml = (al + cvm * a) * rl * inv;
-		// (C + D) with C = α cc, D = α dd
-		const cd = a * (cc + dd);
-		let dg = v * (ml - cd * ga + a * dd);
+		// liquid inertia with the added mass of every class: (α_l + Σ C_VM,k α_k) ρ_l/Δt
+		let added = 0;
+		for (let k = 0; k < nc; k++) added += classes[k].virtualMassCoefficient[i] * classes[k].holdup[i];
+		const ml = (al + added) * rl * inv;
+		let dg = ml;
+		let rhs0 = ml * o.liquidVelocityOld[i];
+		let rhs1 = al;
+		for (let k = 0; k < nc; k++) {
+			const ck = classes[k];
+			const a = ck.holdup[i];
+			const cvm = ck.virtualMassCoefficient[i];
+			const mg = (rg + cvm * rl) * inv;
+			const cc = cvm * rl * inv;
+			const dd = ck.dragSlope[i];
+			const ee = ck.dragOffset[i];
+			const den = mg + dd;
+			const ga = (cc + dd) / den;
+			const gb = (mg * ck.gasVelocityOld[i] - cc * o.liquidVelocityOld[i] - rg * g - ee) / den;
+			const gc = 1 / den;
+			// (C + D) with C = α cc, D = α dd
+			const cd = a * (cc + dd);
+			dg = dg - cd * ga + a * dd;
+			rhs0 = rhs0 - a * cc * ck.gasVelocityOld[i] + cd * gb + a * ee;
+			rhs1 = rhs1 + cd * gc;
+		}
+		dg = v * dg;
 		let lo = 0;
 		let up = 0;
 		if (i > 0) {
@@ -104,8 +139,8 @@ export function solveAxialMomentum(o: AxialMomentumInput): number {
 		lower[i] = lo;
 		upper[i] = up;
 		diag[i] = dg;
-		r0[i] = v * (ml * o.liquidVelocityOld[i] - a * cc * o.gasVelocityOld[i] + cd * gb + a * ee - al * rl * g);
-		r1[i] = v * (al + cd * gc);
+		r0[i] = v * (rhs0 - al * rl * g);
+		r1[i] = v * rhs1;
 	}
 	solveTridiagonal(lower, diag, upper, r0, u0, scratch);
 	solveTridiagonal(lower, diag, upper, r1, u1, scratch);
@@ -119,13 +154,16 @@ export function solveAxialMomentum(o: AxialMomentumInput): number {
 	const G = (o.superficialLiquidVelocityMS * grid.totalVolume - q0) / q1;
 	for (let i = 0; i < n; i++) {
 		const ul = u0[i] + G * u1[i];
-		const cvm = o.virtualMassCoefficient[i];
-		const mg = (rg + cvm * rl) * inv;
-		const cc = cvm * rl * inv;
-		const dd = o.dragSlope[i];
-		const den = mg + dd;
 		o.liquidVelocity[i] = ul;
-		o.gasVelocity[i] = ((cc + dd) * ul + mg * o.gasVelocityOld[i] - cc * o.liquidVelocityOld[i] - rg * g - o.dragOffset[i] + G) / den;
+		for (let k = 0; k < nc; k++) {
+			const ck = classes[k];
+			const cvm = ck.virtualMassCoefficient[i];
+			const mg = (rg + cvm * rl) * inv;
+			const cc = cvm * rl * inv;
+			const dd = ck.dragSlope[i];
+			const den = mg + dd;
+			ck.gasVelocity[i] = ((cc + dd) * ul + mg * ck.gasVelocityOld[i] - cc * o.liquidVelocityOld[i] - rg * g - ck.dragOffset[i] + G) / den;
+		}
 	}
 	return G;
 }

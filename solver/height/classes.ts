@@ -8,6 +8,11 @@ import { collinsWallFactor, krishnaAccelerationFactor, krishnaLargeBubbleDiamete
 import { GRAVITY_MS2 } from '../fluids.js';
 import type { GasClassConfig } from './config.js';
 
+/** `small` → `Small`: the suffix of a class's snapshot fields (`holdupSmall`, `gasVelocitySmall`). */
+export function classFieldSuffix(id: string): string {
+	return id.charAt(0).toUpperCase() + id.slice(1);
+}
+
 /** Davies & Taylor (1950) cap-bubble coefficient: V = 0.71 √(g d). The cap drag C_D = 8/3 gives 1/√2; this factor closes the gap. */
 const DAVIES_TAYLOR_DRAG_FACTOR = 1 / (2 * 0.71 * 0.71);
 

@@ -29,16 +29,13 @@ import { regimeFromBand, regimeFromTransition } from '../correlations/regime.js'
 import { hikitaHoldup } from '../correlations/churn.js';
 import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 import { SoluteTransport } from './transfer.js';
+import { classFieldSuffix } from './classes.js';
 import { deckwerWallHeatTransfer } from '../correlations/heat-transfer.js';
 import { bensonKrauseOxygenSaturationKgM3, effectiveSaturationDepthM } from '../correlations/solubility.js';
 import { NORMAL_PRESSURE_PA } from '../fluids.js';
 
 export const HEIGHT_MODEL_VERSION = SOLVER_VERSION;
 
-/** `small` → `Small`: the suffix of a class's snapshot fields (`holdupSmall`, `gasVelocitySmall`). */
-export function classFieldSuffix(id: string): string {
-	return id.charAt(0).toUpperCase() + id.slice(1);
-}
 
 /** The status record of an ordinary step, shared so a running simulation allocates nothing per step. */
 const RUNNING: StepStatus = Object.freeze({ status: 'running' });

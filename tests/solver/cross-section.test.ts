@@ -15,9 +15,13 @@ import { blasiusFrictionFactor, colebrookFrictionFactor, pipeCase, recirculation
 
 type Overrides = { [K in keyof CaseDocument]?: Partial<CaseDocument[K]> };
 
-/** A cross-section case: the defaults (air–water at 20 °C, 0.2 m, U_g 0.05 m/s, 4 mm, 60 cells) with overrides. */
+/**
+ * A one-class cross-section case: the defaults (air–water at 20 °C, 0.2 m, U_g 0.05 m/s, 60 cells) with the gas as
+ * one bubble size, with overrides. The bubble classes have their own suite (`cross-section-classes.test.ts`).
+ */
 function crossCase(o: Overrides = {}): CaseDocument {
 	const c = defaultCase('cross-section');
+	c.bubbles.classes = 'single';
 	for (const [section, values] of Object.entries(o)) Object.assign((c as unknown as Record<string, object>)[section], values);
 	return c;
 }
