@@ -8,8 +8,10 @@ import { z } from 'zod';
 /**
  * Version 2 added the bubble classes (`bubbles.classes` and the large-bubble fields). A version-1 document
  * is upgraded on reading to the one-class model it was written for, so stored cases keep their results.
+ * Version 3 gave the cross-section model the bubble classes: a version-2 cross-section was computed with one
+ * bubble size whatever its `bubbles.classes` said, so it is upgraded to `single` and keeps its results.
  */
-export const SCHEMA_VERSION = 2 as const;
+export const SCHEMA_VERSION = 3 as const;
 
 export interface FieldMeta {
 	label: string;
@@ -246,15 +248,22 @@ export type ValidationResult = { ok: true; value: CaseDocument } | { ok: false; 
  * Upgrade an older case document to the current schema version (a copy; the input is not changed).
  * Version 1 → 2: the gas was one bubble size, so `bubbles.classes` becomes `single`, and a missing
  * `bubbles.diameterM` keeps version 1's default of 4 mm.
- * Anything that is not a version-1 object is returned as it is, for the schema to judge.
+ * Version 2 → 3: a cross-section's `bubbles.classes` becomes `single` (version 2 computed cross-sections with one
+ * bubble size); a height profile is unchanged.
+ * Anything that is not an object of version 1 or 2 is returned as it is, for the schema to judge.
  */
 export function upgradeCaseDocument(doc: unknown): unknown {
 	if (!doc || typeof doc !== 'object' || Array.isArray(doc)) return doc;
-	const d = doc as Record<string, unknown>;
-	if (d.schemaVersion !== 1) return doc;
-	const bubbles = d.bubbles && typeof d.bubbles === 'object' && !Array.isArray(d.bubbles) ? (d.bubbles as Record<string, unknown>) : {};
-	// version 1's default diameter was 4 mm (version 2's is 5 mm, for the small bubbles)
-	return { ...d, schemaVersion: 2, bubbles: { diameterM: 0.004, ...bubbles, classes: 'single' } };
+	let d = doc as Record<string, unknown>;
+	const bubblesOf = (x: Record<string, unknown>) => (x.bubbles && typeof x.bubbles === 'object' && !Array.isArray(x.bubbles) ? (x.bubbles as Record<string, unknown>) : {});
+	if (d.schemaVersion === 1) {
+		// version 1's default diameter was 4 mm (version 2's is 5 mm, for the small bubbles)
+		d = { ...d, schemaVersion: 2, bubbles: { diameterM: 0.004, ...bubblesOf(d), classes: 'single' } };
+	}
+	if (d.schemaVersion === 2) {
+		d = d.kind === 'cross-section' ? { ...d, schemaVersion: 3, bubbles: { ...bubblesOf(d), classes: 'single' } } : { ...d, schemaVersion: 3 };
+	}
+	return d;
 }
 
 /** Validate an unknown document against the case schema, upgrading older versions first; never throws. */

@@ -113,7 +113,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	const ut = terminalVelocity({ law: c.closures.drag, ...props });
 	const dRho = l.densityKgM3 - rhoSp;
 	const massFlux = gasMassFlux(c);
-	const plan = c.kind === 'height-profile' && c.bubbles.classes === 'small-large' ? planClasses(c) : null;
+	const plan = c.bubbles.classes === 'small-large' ? planClasses(c) : null;
 	const classes =
 		plan && plan.transition
 			? {

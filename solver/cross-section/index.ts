@@ -19,6 +19,18 @@
  *   the profile's shape and α ≥ 0). The radial transport alone conserves the section's gas to
  *   round-off; the only change is this source, which vanishes at steady state.
  *
+ * Bubble classes (`bubbles.classes`, PHYSICS §8.8): with `small-large` the gas is two dispersed fields, small and
+ * large bubbles, divided as at the sparger of a height profile (`planClasses`: Reilly et al. 1994 transition, the
+ * excess gas U_g − U_trans in large bubbles). Each class has its own holdup α_k, axial velocity, drag (the large
+ * class: the cap drag with Krishna's wall and acceleration factors, as Krishna and co-workers used it in their
+ * Eulerian simulations, from memory), its own Tomiyama lift (C_L < 0 for the large bubbles, so they gather in the
+ * core while small bubbles drift to the wall), radial transport and its own flux constraint ⟨α_k u_g,k⟩ = U_g,k. The
+ * classes share the liquid, G, the liquid's eddy viscosity (mixing length + Sato's bubble-induced part of every
+ * class) and the turbulent dispersion (each class down its own holdup gradient, the one-class form per class). The
+ * large class has no wall-lubrication force: Antal et al. (1991) and Tomiyama (1998) describe bubbles of a few
+ * millimetres, and the wall's effect on cap bubbles is already their slower rise (Collins' wall factor). With one
+ * class every operation is the one-class model's, to the bit.
+ *
  * Known behaviour: the mixing-length viscosity vanishes with the shear on the axis, so there only the
  * bubble-induced part remains and the core profiles are peaky; with C_L < 0 and no wall force an
  * inverted circulation (down in the core) is also a steady solution, and which one a run reaches
@@ -30,7 +42,7 @@
  *
  * Time stepping: holdup transport and both momentum equations implicit; closures (viscosity,
  * forces, the drag linearisation) lagged from the old step. Δt from a Courant number on the radial
- * drift velocity, capped at cfl·R/u_t.
+ * drift velocity of every class, capped at cfl·R/u_t of the fastest class.
  *
  * Residuals (dimensionless, after each step; ⟨·⟩ the area average over the section):
  *   gasMassImbalance   |⟨α u_g⟩ − U_g| / U_g
@@ -733,7 +745,7 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		restore(cp: Checkpoint): void {
 			if (cp.kind !== 'cross-section') throw new Error(`A ${cp.kind} checkpoint cannot restore a cross-section run`);
 			// continuing bit-identically needs the very same numerics
-			if (!canContinueCheckpoint(cp.solverVersion, nc === 1)) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
+			if (!canContinueCheckpoint(cp.solverVersion, nc === 1, false, 'cross-section')) throw new Error(`Checkpoint of solver ${cp.solverVersion} cannot continue with solver ${SOLVER_VERSION}`);
 			const dd = cp.data;
 			const arr = (key: string): Float64Array => {
 				const raw: unknown = dd[key];

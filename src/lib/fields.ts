@@ -88,7 +88,21 @@ export function positionTitle(kind: string): string {
 /** Order in which the run page shows a kind's profiles. */
 export function profileOrder(kind: string): string[] {
 	return kind === 'cross-section'
-		? ['holdup', 'liquidVelocity', 'gasVelocity', 'effectiveViscosity', 'liftForce', 'wallLubricationForce', 'dispersionForce', 'dragForce']
+		? [
+				'holdup',
+				'holdupSmall',
+				'holdupLarge',
+				'sauterDiameter',
+				'liquidVelocity',
+				'gasVelocity',
+				'gasVelocitySmall',
+				'gasVelocityLarge',
+				'effectiveViscosity',
+				'liftForce',
+				'wallLubricationForce',
+				'dispersionForce',
+				'dragForce'
+			]
 		: [
 				'holdup',
 				'holdupSmall',
@@ -140,6 +154,8 @@ export const designOrder = [
 	'centrelineLiquidVelocityMS',
 	'reversalRadiusRatio',
 	'peakLocation',
+	'peakLocationSmall',
+	'peakLocationLarge',
 	'axialPressureGradientPaM',
 	'transferRateKgH',
 	'transferEfficiencyPercent',

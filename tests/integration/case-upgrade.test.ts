@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { cases, columns } from '../../src/lib/server/db/schema.js';
-import { oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
+import { defaultCase, oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
 import { runToEnd } from '../../solver/index.js';
 import { openTestDb } from '../helpers/db.js';
 import { createTestTeam, type TestTeam } from '../helpers/team.js';
@@ -51,5 +51,38 @@ describe('migration 0003: stored version-1 cases', () => {
 		const r = runToEnd(doc);
 		expect(r.design.overallHoldup.value).toBe(before.design.overallHoldup.value);
 		expect(r.step).toBe(before.step);
+	});
+});
+
+describe('migration 0007: stored version-2 cross-sections', () => {
+	it('become version 3 with one bubble class, as version 2 computed them; height profiles only take the number', async () => {
+		const cross = { ...defaultCase('cross-section'), schemaVersion: 2, name: 'C-880 section' };
+		cross.numerics.endTimeS = 2;
+		const height = { ...defaultCase('height-profile'), schemaVersion: 2, name: 'C-880 profile' };
+		const insert = async (doc: Record<string, unknown> & { kind: CaseDocument['kind'] }) =>
+			(
+				await handle.db
+					.insert(cases)
+					.values({ teamId: t.team.id, columnId, name: String(doc.name), kind: doc.kind, schemaVersion: 2, document: doc as unknown as CaseDocument })
+					.returning()
+			)[0];
+		const [rc, rh] = [await insert(cross), await insert(height)];
+		// the one bubble size version 2 computed the section with
+		const single = { ...cross, schemaVersion: 3, bubbles: { ...cross.bubbles, classes: 'single' as const } };
+		const before = runToEnd(single);
+		await handle.pool.query(readFileSync('drizzle/0007_upgrade-cross-section-classes.sql', 'utf8'));
+		const [ac] = await handle.db.select().from(cases).where(eq(cases.id, rc.id));
+		const [ah] = await handle.db.select().from(cases).where(eq(cases.id, rh.id));
+		expect([ac.schemaVersion, ah.schemaVersion]).toEqual([3, 3]);
+		const dc = ac.document as unknown as CaseDocument;
+		const dh = ah.document as unknown as CaseDocument;
+		expect(dc.schemaVersion).toBe(3);
+		expect(dc.bubbles).toEqual({ ...cross.bubbles, classes: 'single' });
+		expect(dh).toEqual({ ...height, schemaVersion: 3 });
+		expect(validateCase(dc).ok).toBe(true);
+		const after = runToEnd(dc);
+		expect(after.step).toBe(before.step);
+		expect(after.design.centrelineLiquidVelocityMS.value).toBe(before.design.centrelineLiquidVelocityMS.value);
+		expect(after.profiles.fields.holdupLarge).toBeUndefined();
 	});
 });

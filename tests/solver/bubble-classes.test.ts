@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
+import { oneClassCase, SCHEMA_VERSION, validateCase, type CaseDocument } from '../../solver/case.js';
 import { createSimulation, runToEnd } from '../../solver/index.js';
 import { akitaYoshidaHoldup } from '../../solver/correlations/holdup.js';
 import { collinsWallFactor, krishnaAccelerationFactor, krishnaLargeBubbleDiameter, reillyTransition } from '../../solver/correlations/churn.js';
@@ -73,7 +73,7 @@ describe('one bubble size: the model before the classes', () => {
 		const v1 = validateCase({ schemaVersion: 1, sparging: { superficialGasVelocityMS: 0.05 } });
 		expect(v1.ok).toBe(true);
 		if (!v1.ok) return;
-		expect(v1.value.schemaVersion).toBe(2);
+		expect(v1.value.schemaVersion).toBe(SCHEMA_VERSION);
 		expect(v1.value.bubbles.classes).toBe('single');
 		expect(v1.value.bubbles.diameterM).toBe(0.004);
 		const r = runToEnd(v1.value);

@@ -7,7 +7,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { caseSchema, defaultCase, oneClassCase, validateCase, type CaseDocument } from '../../solver/case.js';
+import { caseSchema, defaultCase, oneClassCase, SCHEMA_VERSION, validateCase, type CaseDocument } from '../../solver/case.js';
 import { findUnit, kindSpecs, measurementKinds, parseMeasurementCsv, toSi, unitsByQuantity, type MeasurementKind } from '../../src/lib/measurements/index.js';
 import { formValues, parseForm } from '../../src/lib/server/forms.js';
 import { columnForm } from '../../src/lib/server/columns.js';
@@ -60,7 +60,7 @@ const anyValue: fc.Arbitrary<unknown> = fc.oneof(
 /** The invariants of every `validateCase` answer. */
 function expectValidationResult(input: unknown, r: ReturnType<typeof validateCase>) {
 	if (r.ok) {
-		expect(r.value.schemaVersion).toBe(2);
+		expect(r.value.schemaVersion).toBe(SCHEMA_VERSION);
 		// a validated document is a fixed point: validating it again changes nothing
 		const again = validateCase(r.value);
 		expect(again).toEqual({ ok: true, value: r.value });

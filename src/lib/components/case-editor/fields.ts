@@ -133,14 +133,6 @@ const onlyFor: Record<string, CaseKind> = {
 	'closures.turbulentDispersion': 'cross-section',
 	'closures.turbulentDispersionCoefficient': 'cross-section',
 	'closures.bubbleInducedTurbulence': 'cross-section',
-	// the cross-section model has one bubble size
-	'bubbles.classes': 'height-profile',
-	'bubbles.transition': 'height-profile',
-	'bubbles.transitionVelocityMS': 'height-profile',
-	'bubbles.transitionHoldup': 'height-profile',
-	'bubbles.largeSizing': 'height-profile',
-	'bubbles.largeDiameterM': 'height-profile',
-	'bubbles.largeDrag': 'height-profile',
 	// mass transfer is computed by the height-profile model only
 	'transfer.mode': 'height-profile',
 	'transfer.solute': 'height-profile',
