@@ -112,7 +112,7 @@ async function main() {
 	};
 	try {
 		const cs = await import('./cross-section.js');
-		out.crossSection = cs.benchCrossSection();
+		out.crossSection = { reference: cs.benchCrossSection(), circulationCurve: cs.circulationCurve() };
 	} catch (e) {
 		out.crossSection = { unavailable: (e as Error).message };
 	}
