@@ -7,6 +7,7 @@ import { configFromCase } from '../../solver/height/config.js';
 import { createHeightSimulation, type HeightSimulation } from '../../solver/height/simulation.js';
 import { churnColumnCase, churnCorrelationMean } from '../../solver/verification/problems.js';
 import { eotvosNumber } from '../../solver/closures/drag.js';
+import { derivedNumbers } from '../../solver/derived.js';
 
 /** The air–water column of the two-class checks (6 m, 3 m of clear liquid) with the gas as size classes. */
 function sizeColumn(diameterM: number, ugMS: number, edit: (c: CaseDocument) => void = () => {}): CaseDocument {
@@ -68,6 +69,22 @@ describe('the size-class option of the case', () => {
 			expect(k.drag).toBe(eo >= SIZE_CLASS_CAP_EOTVOS ? 'spherical-cap' : c.closures.drag);
 		}
 		expect(plan.classes.filter((k) => k.drag === 'spherical-cap').map((k) => k.id)).toEqual(['size8', 'size9', 'size10']);
+	});
+});
+
+describe('derived numbers of a size-class case', () => {
+	it('give the grid ratio, the first cap class and ε = g U_G, and warn when the sparger size lies outside the classes', () => {
+		const c = sizeColumn(0.3, 0.05);
+		const d = derivedNumbers(c);
+		expect(d.classes).toBeNull();
+		expect(d.sizeClasses!.diameterRatio).toBeCloseTo(Math.pow(60, 1 / 9), 12);
+		// Eo = 40 at 17.2 mm in air–water: the first cap class is the 8th, 1 mm · 60^(7/9) = 24.2 mm
+		expect(d.sizeClasses!.capFromDiameterM).toBeCloseTo(0.001 * Math.pow(60, 7 / 9), 12);
+		// common practice: ε = g U_G, here at the sparger gas velocity
+		expect(d.sizeClasses!.dissipationRateM2S3).toBeCloseTo(9.81 * d.spargerSuperficialGasVelocityMS, 12);
+		expect(d.warnings.some((w) => w.includes('outside the size classes'))).toBe(false);
+		c.bubbles.diameterM = 0.0005;
+		expect(derivedNumbers(c).warnings.some((w) => w.includes('enters the smallest class'))).toBe(true);
 	});
 });
 
