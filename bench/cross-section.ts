@@ -103,8 +103,8 @@ export function circulationCurve(): CirculationPoint[] {
 				riquartsMS,
 				ratio: d.centrelineLiquidVelocityMS.value / riquartsMS,
 				sectionHoldup: d.sectionHoldup.value,
-				holdupSmall: d.holdupSmall?.value ?? Number.NaN,
-				holdupLarge: d.holdupLarge?.value ?? Number.NaN,
+				holdupSmall: d.sectionHoldupSmall?.value ?? Number.NaN,
+				holdupLarge: d.sectionHoldupLarge?.value ?? Number.NaN,
 				correlationHoldup,
 				peak: d.peakLocation.label
 			});

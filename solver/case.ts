@@ -10,6 +10,8 @@ import { z } from 'zod';
  * is upgraded on reading to the one-class model it was written for, so stored cases keep their results.
  * Version 3 gave the cross-section model the bubble classes: a version-2 cross-section was computed with one
  * bubble size whatever its `bubbles.classes` said, so it is upgraded to `single` and keeps its results.
+ * Version 3 also added the size classes (`classes: 'size-classes'` and the `sizeClass…` fields): one more enum
+ * value and fields with defaults, which a stored document needs no upgrade for.
  */
 export const SCHEMA_VERSION = 3 as const;
 
@@ -55,8 +57,11 @@ export const wallFrictionModels = ['none', 'blasius'] as const;
 export const convectionSchemes = ['donor-cell', 'van-leer', 'minmod'] as const;
 export const gasVelocityBases = ['sparger', 'normal'] as const;
 export const bubbleSizings = ['fixed', 'akita-yoshida'] as const;
-/** one bubble size, or small and large bubbles above the regime transition */
-export const bubbleClassModels = ['single', 'small-large'] as const;
+/**
+ * one bubble size; small and large bubbles above the regime transition; or a bubble size distribution on a
+ * geometric grid of size classes with coalescence and breakup
+ */
+export const bubbleClassModels = ['single', 'small-large', 'size-classes'] as const;
 export type BubbleClassModel = (typeof bubbleClassModels)[number];
 export const transitionCorrelations = ['reilly', 'fixed'] as const;
 export const largeBubbleSizings = ['krishna', 'fixed'] as const;
@@ -132,7 +137,10 @@ export const bubblesSchema = z
 		transitionHoldup: quantity({ label: 'Transition holdup', unit: '1', help: 'used when the transition is fixed' }, 0.005, 0.6, 0.15),
 		largeSizing: z.enum(largeBubbleSizings).default('krishna'),
 		largeDiameterM: quantity({ label: 'Large-bubble diameter', unit: 'm', help: 'used when the large-bubble size is fixed' }, 0.005, 0.2, 0.04),
-		largeDrag: z.enum(largeBubbleDrags).default('krishna-swarm')
+		largeDrag: z.enum(largeBubbleDrags).default('krishna-swarm'),
+		sizeClassCount: quantity({ label: 'Number of size classes', unit: '1', help: 'bubble size classes on a geometric diameter grid' }, 6, 16, 10, { int: true }),
+		sizeClassMinDiameterM: quantity({ label: 'Smallest class diameter', unit: 'm', help: 'volume-equivalent diameter of the smallest size class' }, 2e-4, 0.01, 0.001),
+		sizeClassMaxDiameterM: quantity({ label: 'Largest class diameter', unit: 'm', help: 'volume-equivalent diameter of the largest size class' }, 0.005, 0.2, 0.06)
 	})
 	.prefault({});
 
@@ -222,6 +230,16 @@ export const caseSchema = z
 		if (mode !== 'none' && c.kind === 'cross-section') transferIssue('Mass transfer is computed by the height-profile model only');
 		else if (mode === 'batch' && jl !== 0) transferIssue(`A batch liquid needs a superficial liquid velocity of 0 (the case has ${jl} m/s)`);
 		else if (mode === 'continuous' && jl === 0) transferIssue('A continuous liquid needs a superficial liquid velocity other than 0 (positive co-current, negative counter-current)');
+		const b = c.bubbles;
+		if (b.classes === 'size-classes' && c.kind === 'cross-section') {
+			ctx.addIssue({ code: 'custom', path: ['bubbles', 'classes'], message: 'Size classes are computed by the height-profile model only (use one size or small and large bubbles)' });
+		} else if (b.classes === 'size-classes' && !(b.sizeClassMaxDiameterM >= 2 * b.sizeClassMinDiameterM)) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['bubbles', 'sizeClassMaxDiameterM'],
+				message: `Largest class diameter must be at least twice the smallest (${b.sizeClassMinDiameterM} m)`
+			});
+		}
 		if (c.numerics.snapshotIntervalS > c.numerics.endTimeS) {
 			ctx.addIssue({
 				code: 'custom',

@@ -50,6 +50,15 @@ export interface DerivedNumbers {
 		/** large-bubble swarm velocity, 0.71 √(g d) SF AF, m/s */
 		largeSwarmVelocityMS: number;
 	} | null;
+	/** size classes (height profile only): the grid, where the cap drag starts and the dissipation rate of the kernels */
+	sizeClasses: {
+		/** d_{k+1}/d_k of the geometric grid */
+		diameterRatio: number;
+		/** diameter of the smallest class with the spherical-cap drag (Eo ≥ 40), m; null when no class is a cap */
+		capFromDiameterM: number | null;
+		/** ε = g U_G at the sparger, W/kg (common practice) */
+		dissipationRateM2S3: number;
+	} | null;
 	/** mass transfer (height profile, mode other than `none`): saturation at the top and at the sparger, liquid dispersion */
 	transfer: {
 		/** saturation concentration with the gas fed at the top pressure (Henry's law), kg/m³ */
@@ -125,6 +134,14 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 					largeSwarmVelocityMS: plan.largeSwarmVelocityMS
 				}
 			: null;
+	const sizePlan = c.kind === 'height-profile' && c.bubbles.classes === 'size-classes' ? planClasses(c) : null;
+	const sizeClasses = sizePlan?.sizeGrid
+		? {
+				diameterRatio: Math.cbrt(sizePlan.sizeGrid.ratio),
+				capFromDiameterM: sizePlan.classes.find((k) => k.drag === 'spherical-cap')?.diameterM ?? null,
+				dissipationRateM2S3: g * (massFlux / rhoSp)
+			}
+		: null;
 	const regime = classes
 		? regimeFromTransition({ superficialGasVelocityMS: massFlux / rhoSp, transitionVelocityMS: classes.transitionVelocityMS, source: classes.transitionSource })
 		: regimeFromBand({ superficialGasVelocityMS: massFlux / rhoSp });
@@ -170,6 +187,11 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 			}`
 		);
 	}
+	if (sizeClasses && (d < c.bubbles.sizeClassMinDiameterM || d > c.bubbles.sizeClassMaxDiameterM)) {
+		warnings.push(
+			`The bubbles fed (${(d * 1000).toPrecision(2)} mm) lie outside the size classes (${(c.bubbles.sizeClassMinDiameterM * 1000).toPrecision(2)}–${(c.bubbles.sizeClassMaxDiameterM * 1000).toPrecision(2)} mm): their gas enters the ${d < c.bubbles.sizeClassMinDiameterM ? 'smallest' : 'largest'} class`
+		);
+	}
 	if (c.closures.interfacialPressureCoefficient === 0) {
 		warnings.push('With no interfacial pressure the one-dimensional two-fluid model is not well-posed (complex characteristics)');
 	}
@@ -199,6 +221,7 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 				: 0,
 		warnings,
 		classes,
+		sizeClasses,
 		transfer
 	};
 }

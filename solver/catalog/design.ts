@@ -18,6 +18,22 @@ export interface QuantityEntry {
 	source: string;
 }
 
+/** The per-class numbers of the size classes (`holdupSize1`, `slipSize1MS`, `diameterSize1M`, …), classes 1 … n. */
+function sizeClassEntries(n: number): Record<string, QuantityEntry> {
+	const out: Record<string, QuantityEntry> = {};
+	for (let k = 1; k <= n; k++) {
+		out[`holdupSize${k}`] = { label: `Holdup of size class ${k}`, formula: `ε_${k} = (volume of class-${k} bubbles below the level)/H`, unit: '1', source: 'definition' };
+		out[`slipSize${k}MS`] = { label: `Slip of size class ${k}`, formula: `volume-weighted mean of u_${k} − u_l below the level`, unit: 'm/s', source: 'definition' };
+		out[`diameterSize${k}M`] = {
+			label: `Diameter of size class ${k}`,
+			formula: `d_${k} = d_min (d_max/d_min)^((${k} − 1)/(n − 1)), the pivot of the fixed-pivot class method`,
+			unit: 'm',
+			source: 'Kumar & Ramkrishna (1996), Chem. Eng. Sci. 51, 1311'
+		};
+	}
+	return out;
+}
+
 /** Design numbers of both models, by their stable id. */
 export const designCatalog: Record<string, QuantityEntry> = {
 	// height profile
@@ -137,6 +153,23 @@ export const designCatalog: Record<string, QuantityEntry> = {
 		unit: '1',
 		source: 'Collins (1967), J. Fluid Mech. 28, 97'
 	},
+	sauterDiameterBottomM: { label: 'Sauter diameter at the sparger', formula: 'd₃₂ = 1/Σ(y_k/d_k) of the first cell, y_k the gas share of size class k', unit: 'm', source: 'definition' },
+	sauterDiameterTopM: {
+		label: 'Sauter diameter below the level',
+		formula: 'd₃₂ = 1/Σ(y_k/d_k) of the cell below the one holding the level (the top of the bubbly region)',
+		unit: 'm',
+		source: 'definition'
+	},
+	bubbleNumberDensityBottomPerM3: { label: 'Bubble number density at the sparger', formula: 'Σ α_k/(π d_k³/6) of the first cell', unit: '1/m³', source: 'definition' },
+	bubbleNumberDensityTopPerM3: { label: 'Bubble number density below the level', formula: 'Σ α_k/(π d_k³/6) of the cell below the one holding the level', unit: '1/m³', source: 'definition' },
+	sizeClassDiameterRatio: { label: 'Size-class diameter ratio', formula: 'd_{k+1}/d_k = (d_max/d_min)^(1/(n − 1)), a geometric grid', unit: '1', source: 'definition' },
+	dissipationRateM2S3: {
+		label: 'Turbulence dissipation rate',
+		formula: 'ε = g U_G at the sparger gas density, the power input of the gas per unit liquid mass (the kernels use g G/ρ_g of each cell)',
+		unit: 'W/kg',
+		source: 'common practice'
+	},
+	...sizeClassEntries(16),
 	// cross-section
 	sectionHoldup: { label: 'Section-average gas holdup', formula: '⟨α⟩ = (2/R²) ∫₀^R α r dr', unit: '1', source: 'definition' },
 	centrelineLiquidVelocityMS: {
@@ -154,6 +187,20 @@ export const designCatalog: Record<string, QuantityEntry> = {
 	peakLocation: {
 		label: 'Holdup peak',
 		formula: '1 wall-peaked (largest α beyond r/R = 0.5), 0 core-peaked; none for a flat profile or no gas',
+		unit: '1',
+		source: 'definition'
+	},
+	sectionHoldupSmall: { label: 'Section-average small-bubble holdup', formula: '⟨α_small⟩ over the section', unit: '1', source: 'definition' },
+	sectionHoldupLarge: { label: 'Section-average large-bubble holdup', formula: '⟨α_large⟩ over the section', unit: '1', source: 'definition' },
+	peakLocationSmall: {
+		label: 'Small-bubble holdup peak',
+		formula: '1 wall-peaked (largest α_small beyond r/R = 0.5), 0 core-peaked; none for a flat profile or no small bubbles',
+		unit: '1',
+		source: 'definition'
+	},
+	peakLocationLarge: {
+		label: 'Large-bubble holdup peak',
+		formula: '1 wall-peaked (largest α_large beyond r/R = 0.5), 0 core-peaked; none for a flat profile or no large bubbles',
 		unit: '1',
 		source: 'definition'
 	},

@@ -100,6 +100,13 @@ export const bubbleClassCatalog: Catalog<typeof bubbleClassModels> = {
 		label: 'Small + large bubbles',
 		models: 'above the regime transition the small bubbles carry the transition gas rate and the excess rises as large bubbles, each class with its own continuity, momentum and drag',
 		source: 'R. Krishna, J. Ellenberger (1996), AIChE J. 42, 2627'
+	},
+	'size-classes': {
+		label: 'Size classes (coalescence and breakup)',
+		models:
+			'a bubble size distribution on a geometric grid of size classes, each with its own continuity, momentum and drag; coalescence (turbulent and buoyancy-driven collisions, film drainage) and breakup by turbulent eddies move gas between the classes, with ε = g U_G',
+		source:
+			'S. Kumar, D. Ramkrishna (1996), Chem. Eng. Sci. 51, 1311 (fixed pivot); M. J. Prince, H. W. Blanch (1990), AIChE J. 36, 1485 (coalescence); H. Luo, H. F. Svendsen (1996), AIChE J. 42, 1225 (breakup)'
 	}
 };
 

@@ -705,7 +705,7 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		if (nc > 1) {
 			for (const k of cls) {
 				const what = k.spec.label.toLowerCase();
-				design[`holdup${k.suffix}`] = { value: sectionAverage(grid, k.alpha), unit: '1', label: `Section-average holdup of the ${what}` };
+				design[`sectionHoldup${k.suffix}`] = { value: sectionAverage(grid, k.alpha), unit: '1', label: `Section-average holdup of the ${what}` };
 				design[`diameter${k.suffix}M`] = { value: k.spec.diameterM, unit: 'm', label: `Diameter of the ${what}` };
 				design[`peakLocation${k.suffix}`] = peakOf(k.alpha, `Holdup peak of the ${what}`);
 			}

@@ -55,6 +55,23 @@ export interface GasClassConfig {
 	inflowShare: number;
 }
 
+/**
+ * Coalescence and breakup among the size classes (`population-source.ts`): the classes of `HeightModelConfig.classes`
+ * are the pivots of `grid`, in order.
+ */
+export interface SizeClassSourceConfig {
+	/** the pivot grid the classes sit on (minimum diameter, volume ratio, number of classes) */
+	minDiameterM: number;
+	volumeRatio: number;
+	classes: number;
+	/** Prince & Blanch (1990) coalescence on/off */
+	coalescence: boolean;
+	/** Luo & Svendsen (1996) breakup on/off */
+	breakup: boolean;
+	/** relative tolerance of the class-method integration over one time step (default 1e-5) */
+	relativeTolerance?: number;
+}
+
 /** The solute transported in the liquid and in each bubble class (PHYSICS-style notes at the top of `transfer.ts`). */
 export interface TransferConfig {
 	mode: 'batch' | 'continuous' | 'steady';
@@ -103,6 +120,8 @@ export interface HeightModelConfig {
 	transitionSource?: string;
 	/** two or more bubble classes; omitted = one class of `bubbleDiameterM` with `drag` and `swarm` */
 	classes?: GasClassConfig[];
+	/** coalescence and breakup among the classes (size classes only); omitted = the classes keep their gas */
+	sizeClasses?: SizeClassSourceConfig;
 	/** 'none' switches interfacial drag off (the faucet benchmark assumes no interfacial friction) */
 	drag: DragLaw | 'none';
 	swarm: SwarmCorrection;
@@ -181,8 +200,14 @@ export function configFromCase(c: CaseDocument): HeightModelConfig {
 		expected.largeAccelerationFactor = { value: plan.accelerationFactor, unit: '1', label: 'Large-bubble swarm acceleration factor (Krishna et al. 1999)' };
 		expected.largeWallFactor = { value: plan.wallFactor, unit: '1', label: 'Large-bubble wall factor (Collins 1967)' };
 	}
+	if (plan.sizeGrid) {
+		const jg = gasMassFlux(c) / rhoSp;
+		expected.sizeClassDiameterRatio = { value: Math.cbrt(plan.sizeGrid.ratio), unit: '1', label: 'Diameter ratio of neighbouring size classes' };
+		expected.dissipationRateM2S3 = { value: GRAVITY_MS2 * jg, unit: 'W/kg', label: 'Turbulence dissipation rate at the sparger, ε = g U_G (common practice)' };
+	}
 	return {
 		...(plan.classes.length > 1 ? { classes: plan.classes, expected, transitionSource: plan.transitionSource } : {}),
+		...(plan.sizeGrid ? { sizeClasses: { minDiameterM: plan.sizeGrid.diametersM[0], volumeRatio: plan.sizeGrid.ratio, classes: plan.sizeGrid.classes, coalescence: true, breakup: true } } : {}),
 		cells: c.numerics.cells,
 		heightM: c.geometry.heightM,
 		diameterM: c.geometry.diameterM,

@@ -30,6 +30,7 @@ import { hikitaHoldup } from '../correlations/churn.js';
 import { canContinueCheckpoint, SOLVER_VERSION } from '../version.js';
 import { SoluteTransport } from './transfer.js';
 import { classFieldSuffix } from './classes.js';
+import { SizeClassSource } from './population-source.js';
 import { deckwerWallHeatTransfer } from '../correlations/heat-transfer.js';
 import { bensonKrauseOxygenSaturationKgM3, effectiveSaturationDepthM } from '../correlations/solubility.js';
 import { NORMAL_PRESSURE_PA } from '../fluids.js';
@@ -53,6 +54,8 @@ export interface HeightSimulation extends Simulation {
 	readonly model: HeightModel;
 	/** the dissolved gas along the column; null without mass transfer */
 	readonly transfer: SoluteTransport | null;
+	/** coalescence and breakup among the size classes; null for the other bubble-class models */
+	readonly sizeClasses: SizeClassSource | null;
 	/** level (α = 0.5 crossing from the top), m */
 	level(): number;
 	/** gas holdup below the level */
@@ -94,6 +97,7 @@ class HeightSimulationImpl implements HeightSimulation {
 	private readonly winGasVelocity: Float64Array;
 	private readonly winLiquidVelocity: Float64Array;
 	readonly transfer: SoluteTransport | null;
+	readonly sizeClasses: SizeClassSource | null;
 	/** batch and continuous transfer: the solute must be steady too before the run counts as converged */
 	private readonly soluteInCriterion: boolean;
 	private soluteChangeRate = 1;
@@ -125,6 +129,7 @@ class HeightSimulationImpl implements HeightSimulation {
 		this.winCentre = this.liquidCentre();
 		const t = cfg.transfer;
 		this.transfer = t ? new SoluteTransport(this.model, t) : null;
+		this.sizeClasses = cfg.sizeClasses ? new SizeClassSource(this.model, cfg.sizeClasses) : null;
 		this.soluteInCriterion = !!t && t.mode !== 'steady';
 		this.winConcentration = this.transfer ? Float64Array.from(this.transfer.concentration) : null;
 		this.concentrationScale = t
@@ -156,6 +161,16 @@ class HeightSimulationImpl implements HeightSimulation {
 				m.status = 'failed';
 				m.message = `the dissolved concentration is not a number at t = ${m.timeS.toFixed(4)} s`;
 			} else if (this.sampleIntervalS > 0) this.sample(mean);
+		}
+		const pop = this.sizeClasses;
+		if (pop && m.status !== 'failed') {
+			// operator split: coalescence and breakup after the transport of the classes (and of the solute)
+			try {
+				pop.apply(m.dtS, tr);
+			} catch (e) {
+				m.status = 'failed';
+				m.message = `coalescence and breakup at t = ${m.timeS.toFixed(4)} s: ${e instanceof Error ? e.message : String(e)}`;
+			}
 		}
 		const dt = m.dtS;
 		this.winGasIn += m.diag.gasInKgM2S * dt;
@@ -626,6 +641,7 @@ class HeightSimulationImpl implements HeightSimulation {
 				design[`diameter${k.suffix}M`] = num(k.diameterM, 'm', `Diameter of the ${k.label.toLowerCase()}`);
 			}
 		}
+		if (this.sizeClasses) Object.assign(design, this.sizeClassDesign(level));
 		Object.assign(design, cfg.expected ?? {});
 		if (this.transfer) Object.assign(design, this.transferDesign({ level, holdup: eps, spargerPressurePa: p0, superficialGasVelocityMS: jg, gasMassFluxKgM2S: fin }));
 		const r: Results = { kind: 'height-profile', status: m.status, step: m.stepCount, timeS: m.timeS, design, profiles: this.snapshot() };
@@ -634,6 +650,33 @@ class HeightSimulationImpl implements HeightSimulation {
 			r.series = { [this.transfer.cfg.solute.seriesId]: { timeS: [...this.seriesTimeS], concentrationKgM3: [...this.seriesConcentration] } };
 		}
 		return r;
+	}
+
+	/** Sauter diameter of cell i from the class shares, d32 = 1/Σ (y_k/d_k), m. */
+	private cellSauterM(i: number): number {
+		const m = this.model;
+		let inv = 0;
+		for (let k = 0; k < m.nc; k++) inv += m.classShare[k][i] / m.classes[k].diameterM;
+		return inv > 0 ? 1 / inv : m.classes[0].diameterM;
+	}
+
+	/** Size classes: the Sauter diameter at the sparger and just below the level, and the bubble number density there. */
+	private sizeClassDesign(level: number): Record<string, DesignNumber> {
+		const m = this.model;
+		const num = (value: number, unit: string, label: string): DesignNumber => ({ value, unit, label });
+		// the cell holding the level mixes bubbly liquid and freeboard: the top of the bubbly region is the cell below it
+		const top = Math.max(0, Math.min(m.n - 1, Math.floor(level / m.dz) - 1));
+		const numberDensity = (i: number) => {
+			let s = 0;
+			for (let k = 0; k < m.nc; k++) s += m.classHoldup(k, i) / ((Math.PI / 6) * m.classes[k].diameterM ** 3);
+			return s;
+		};
+		return {
+			sauterDiameterBottomM: num(this.cellSauterM(0), 'm', 'Sauter mean diameter at the sparger (first cell)'),
+			sauterDiameterTopM: num(this.cellSauterM(top), 'm', 'Sauter mean diameter at the top of the bubbly region (cell below the level)'),
+			bubbleNumberDensityBottomPerM3: num(numberDensity(0), '1/m³', 'Bubble number density at the sparger (first cell)'),
+			bubbleNumberDensityTopPerM3: num(numberDensity(top), '1/m³', 'Bubble number density at the top of the bubbly region')
+		};
 	}
 
 	/**

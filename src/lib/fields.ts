@@ -27,8 +27,20 @@ export const fieldInfo: Record<string, { label: string; unit: string }> = {
 	dragForce: { label: 'radial drag force', unit: 'N/m³' }
 };
 
+/** Per-class fields of the size classes: `holdupSize3` → size class 3. */
+const sizeClassField = /^(holdup|gasVelocity|gasMoleFraction)Size(\d+)$/;
+const sizeClassInfo: Record<string, { label: string; unit: string }> = {
+	holdup: { label: 'holdup', unit: '1' },
+	gasVelocity: { label: 'velocity', unit: 'm/s' },
+	gasMoleFraction: { label: 'solute mole fraction', unit: '1' }
+};
+
 export function fieldLabel(id: string): { label: string; unit: string } {
-	return fieldInfo[id] ?? { label: id, unit: '?' };
+	const known = fieldInfo[id];
+	if (known) return known;
+	const m = sizeClassField.exec(id);
+	if (m) return { label: `${sizeClassInfo[m[1]].label}, size class ${m[2]}`, unit: sizeClassInfo[m[1]].unit };
+	return { label: id, unit: '?' };
 }
 
 /**
@@ -70,7 +82,7 @@ export function chartValues(id: string, values: ArrayLike<number>, holdup?: Arra
 	const gasAbsent = (a: number) => a < ABSENT_PHASE_FRACTION;
 	const liquidAbsent = (a: number) => 1 - a < ABSENT_PHASE_FRACTION;
 	const absent =
-		id === 'gasVelocity' || id === 'gasVelocitySmall' || id === 'gasVelocityLarge' ? gasAbsent : id === 'liquidVelocity' ? liquidAbsent : id === 'slip' ? (a: number) => gasAbsent(a) || liquidAbsent(a) : null;
+		id === 'gasVelocity' || id === 'gasVelocitySmall' || id === 'gasVelocityLarge' || /^gasVelocitySize\d+$/.test(id) ? gasAbsent : id === 'liquidVelocity' ? liquidAbsent : id === 'slip' ? (a: number) => gasAbsent(a) || liquidAbsent(a) : null;
 	if (!absent) return scaled;
 	return Array.from(scaled, (v, i) => (absent(holdup[i]) ? Number.NaN : v));
 }
@@ -107,6 +119,8 @@ export function profileOrder(kind: string): string[] {
 				'holdup',
 				'holdupSmall',
 				'holdupLarge',
+				// size classes (at most 16): the holdup of each class; their velocities are in the CSV
+				...Array.from({ length: 16 }, (_, k) => `holdupSize${k + 1}`),
 				'sauterDiameter',
 				'gasVelocity',
 				'gasVelocitySmall',
@@ -138,6 +152,8 @@ export const designOrder = [
 	'interfacialAreaPerM',
 	'kLaPerS',
 	'sauterDiameterM',
+	'sauterDiameterBottomM',
+	'sauterDiameterTopM',
 	'holdupSmall',
 	'holdupLarge',
 	'diameterSmallM',
@@ -154,6 +170,8 @@ export const designOrder = [
 	'centrelineLiquidVelocityMS',
 	'reversalRadiusRatio',
 	'peakLocation',
+	'sectionHoldupSmall',
+	'sectionHoldupLarge',
 	'peakLocationSmall',
 	'peakLocationLarge',
 	'axialPressureGradientPaM',

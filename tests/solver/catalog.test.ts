@@ -42,6 +42,19 @@ describe('catalogue of design numbers and residuals', () => {
 			),
 			ids: [...heightResidualNames]
 		},
+		{
+			name: 'a height profile with size classes',
+			kind: 'height-profile',
+			doc: short(
+				(() => {
+					const c = defaultCase();
+					c.bubbles.classes = 'size-classes';
+					c.bubbles.sizeClassCount = 16;
+					return c;
+				})()
+			),
+			ids: [...heightResidualNames]
+		},
 		{ name: 'a cross-section', kind: 'cross-section', doc: defaultCase('cross-section'), ids: [...crossSectionResidualNames] },
 		{
 			name: 'a height profile with oxygen transfer',

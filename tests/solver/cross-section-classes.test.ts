@@ -92,7 +92,7 @@ describe('cross-section model with small and large bubbles', () => {
 
 	it('below the transition has only small bubbles, wall-peaked by their positive lift (homogeneous flow)', () => {
 		const d = at(0.3, 0.02).results.design;
-		expect(d.holdupLarge.value).toBe(0);
+		expect(d.sectionHoldupLarge.value).toBe(0);
 		expect(d.peakLocation.label).toBe('Holdup peak: wall-peaked');
 	});
 

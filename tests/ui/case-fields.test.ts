@@ -46,4 +46,16 @@ describe('case editor fields read from the case schema', () => {
 		// every transfer field carries a unit or a set of options
 		for (const f of fields.filter((x) => x.section === 'transfer')) expect(f.kind === 'enum' ? f.options?.length : f.unit).toBeTruthy();
 	});
+
+	it('shows the size-class fields only when the gas is divided into size classes', () => {
+		const shown = (doc: ReturnType<typeof defaultCase>) => fields.filter((f) => f.section === 'bubbles' && isShown(f, doc)).map((f) => f.path);
+		const two = defaultCase('height-profile');
+		expect(shown(two)).not.toContain('bubbles.sizeClassCount');
+		const sized = { ...two, bubbles: { ...two.bubbles, classes: 'size-classes' as const } };
+		expect(shown(sized)).toEqual(expect.arrayContaining(['bubbles.sizeClassCount', 'bubbles.sizeClassMinDiameterM', 'bubbles.sizeClassMaxDiameterM', 'bubbles.diameterM']));
+		expect(shown(sized)).not.toContain('bubbles.largeDrag');
+		expect(fields.find((f) => f.path === 'bubbles.sizeClassCount')).toMatchObject({ integer: true, min: 6, max: 16 });
+		expect(fields.find((f) => f.path === 'bubbles.classes')?.options).toContain('size-classes');
+		expect(shown({ ...sized, kind: 'cross-section' })).not.toContain('bubbles.sizeClassCount');
+	});
 });

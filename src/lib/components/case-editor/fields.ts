@@ -48,7 +48,7 @@ function unwrap(s: ZodLike): ZodLike {
 /** Enum field labels where the schema has none (the enums carry no metadata). */
 const enumLabels: Record<string, { label: string; help?: string }> = {
 	'sparging.gasVelocityBasis': { label: 'Gas velocity given at', help: 'sparger conditions, or normal conditions (0 °C, 1 atm)' },
-	'bubbles.classes': { label: 'Gas as', help: 'one bubble size, or small and large bubbles above the regime transition' },
+	'bubbles.classes': { label: 'Gas as', help: 'one bubble size, small and large bubbles above the regime transition, or size classes with coalescence and breakup' },
 	'bubbles.sizing': { label: 'Bubble size from', help: 'a fixed diameter, or the Akita–Yoshida (1974) correlation (the small bubbles, with two classes)' },
 	'bubbles.transition': { label: 'Regime transition from', help: 'where the gas starts to rise as large bubbles' },
 	'bubbles.largeSizing': { label: 'Large-bubble size from' },
@@ -133,6 +133,10 @@ const onlyFor: Record<string, CaseKind> = {
 	'closures.turbulentDispersion': 'cross-section',
 	'closures.turbulentDispersionCoefficient': 'cross-section',
 	'closures.bubbleInducedTurbulence': 'cross-section',
+	// the size classes are computed by the height-profile model only
+	'bubbles.sizeClassCount': 'height-profile',
+	'bubbles.sizeClassMinDiameterM': 'height-profile',
+	'bubbles.sizeClassMaxDiameterM': 'height-profile',
 	// mass transfer is computed by the height-profile model only
 	'transfer.mode': 'height-profile',
 	'transfer.solute': 'height-profile',
@@ -159,6 +163,9 @@ const dependsOn: Record<string, (c: CaseDocument) => boolean> = {
 	'bubbles.largeSizing': (c) => c.bubbles.classes === 'small-large',
 	'bubbles.largeDiameterM': (c) => c.bubbles.classes === 'small-large' && c.bubbles.largeSizing === 'fixed',
 	'bubbles.largeDrag': (c) => c.bubbles.classes === 'small-large',
+	'bubbles.sizeClassCount': (c) => c.bubbles.classes === 'size-classes',
+	'bubbles.sizeClassMinDiameterM': (c) => c.bubbles.classes === 'size-classes',
+	'bubbles.sizeClassMaxDiameterM': (c) => c.bubbles.classes === 'size-classes',
 	'transfer.solute': (c) => c.transfer.mode !== 'none',
 	// every mode starts the liquid from it (a steady run forgets it on the way)
 	'transfer.initialConcentrationKgM3': (c) => c.transfer.mode !== 'none',
