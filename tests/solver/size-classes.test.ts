@@ -86,6 +86,16 @@ describe('derived numbers of a size-class case', () => {
 		c.bubbles.diameterM = 0.0005;
 		expect(derivedNumbers(c).warnings.some((w) => w.includes('enters the smallest class'))).toBe(true);
 	});
+
+	it('warn above 0.03 m/s that the holdup comes out above the correlations, and not at 0.02 m/s', () => {
+		// the measured ratios of the holdup suite below: 0.97 at 0.02 m/s, 1.36 at 0.05 and 1.97 at 0.1 m/s
+		const over = (d: ReturnType<typeof derivedNumbers>) => d.warnings.some((w) => w.includes('1.4–2 times the published correlations'));
+		expect(over(derivedNumbers(sizeColumn(0.3, 0.05)))).toBe(true);
+		expect(over(derivedNumbers(sizeColumn(0.3, 0.02)))).toBe(false);
+		const two = sizeColumn(0.3, 0.05);
+		two.bubbles.classes = 'small-large';
+		expect(over(derivedNumbers(two))).toBe(false);
+	});
 });
 
 describe('gas conservation with coalescence and breakup on', () => {
