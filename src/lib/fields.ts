@@ -138,6 +138,9 @@ export function profileOrder(kind: string): string[] {
 			];
 }
 
+/** Design numbers whose value is a category (0/1) named by their label after ': ', e.g. `Holdup peak: core-peaked`. */
+export const categoricalDesign: ReadonlySet<string> = new Set(['regime', 'peakLocation', 'peakLocationSmall', 'peakLocationLarge']);
+
 /** Design numbers that are published correlations, shown beside the run's own holdup as checks. */
 export const correlationChecks = ['akitaYoshidaHoldup', 'hughmarkHoldup', 'hikitaHoldup', 'driftFluxHoldup'];
 

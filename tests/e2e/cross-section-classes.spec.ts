@@ -1,0 +1,72 @@
+/**
+ * Bubble classes across the section, in a real browser against the built app and a real worker: the analyst sets
+ * up a churn-turbulent cross-section, the editor's Bubble classes section shows the transition and the division of
+ * the gas, and the run page shows each class's holdup, which the lift's sign change puts at the wall (small) and in
+ * the core (large). Screenshots go to artifacts/screenshots (git-ignored).
+ */
+import { expect, test } from '@playwright/test';
+import { openNewCaseOfPilot, ANALYST, SHOTS, signIn } from './demo';
+
+test.describe.configure({ timeout: 240_000 });
+
+const number = async (text: Promise<string | null>) => Number((await text)?.replace(/[^0-9.eE+−-]/g, '').replace('−', '-'));
+
+test('a churn-turbulent cross-section with small and large bubbles, set up in the editor and run by the worker', async ({ browser }) => {
+	const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+	const page = await context.newPage();
+	await signIn(page, ANALYST);
+	await openNewCaseOfPilot(page);
+	await page.getByTestId('kind-cross-section').check({ force: true });
+	await page.getByTestId('field-name').fill(`E2E section classes ${Date.now().toString(36)}`);
+	// air–water in a 0.3 m column at 0.2 m/s: well above the transition
+	await page.getByTestId('field-geometry.diameterM').fill('0.3');
+	await page.getByTestId('field-sparging.superficialGasVelocityMS').fill('0.2');
+	await page.getByTestId('field-numerics.cells').fill('60');
+	await page.getByTestId('field-numerics.endTimeS').fill('120');
+	const section = page.getByTestId('section-bubbles');
+	await expect(section.getByTestId('field-bubbles.classes')).toHaveValue('small-large');
+	await expect(section.getByTestId('field-bubbles.largeDrag')).toBeVisible();
+	// Reilly et al. (1994) for air–water at about 1.2 kg/m³: U_trans a few cm/s, so most of 0.2 m/s rises as large bubbles
+	const uTrans = await number(page.getByTestId('derived-transitionVelocityMS').textContent());
+	expect(uTrans).toBeGreaterThan(0.02);
+	expect(uTrans).toBeLessThan(0.06);
+	const share = await number(page.getByTestId('derived-largeGasShare').textContent());
+	expect(Math.abs(share - 100 * (1 - uTrans / 0.2))).toBeLessThan(2);
+	// the size classes are a height-profile model: chosen here, the form names the field
+	await section.getByTestId('field-bubbles.classes').selectOption('size-classes');
+	await expect(page.getByText('Size classes are computed by the height-profile model only')).toBeVisible();
+	await section.getByTestId('field-bubbles.classes').selectOption('small-large');
+	await section.scrollIntoViewIfNeeded();
+	await page.screenshot({ path: `${SHOTS}/section-classes-10-case-editor.png` });
+
+	await page.getByTestId('queue-run').click();
+	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
+
+	// solver test: 0.3 m at 0.2 m/s gives a section holdup of 0.20 (the correlations' mean 0.23), small bubbles at
+	// the wall, large ones in the core, and a centreline velocity 1.1 times Riquarts (1981)
+	const holdup = await number(page.getByTestId('design-sectionHoldup').textContent());
+	expect(holdup).toBeGreaterThan(0.16);
+	expect(holdup).toBeLessThan(0.3);
+	await expect(page.getByTestId('design-peakLocationSmall')).toContainText('wall-peaked');
+	await expect(page.getByTestId('design-peakLocationLarge')).toContainText('core-peaked');
+	await expect(page.getByTestId('design-peakLocation')).toContainText('core-peaked');
+	const small = await number(page.getByTestId('design-sectionHoldupSmall').textContent());
+	const large = await number(page.getByTestId('design-sectionHoldupLarge').textContent());
+	expect(Math.abs(small + large - holdup)).toBeLessThan(0.002);
+	const uc = await number(page.getByTestId('design-centrelineLiquidVelocityMS').textContent());
+	const riquarts = 0.21 * Math.sqrt(9.81 * 0.3) * Math.pow(0.2 ** 3 / (9.81 * (1.002e-3 / 998.2)), 1 / 8);
+	expect(Math.abs(uc / riquarts - 1)).toBeLessThan(0.3);
+
+	// each class's holdup across the radius is among the profiles
+	const select = page.getByTestId('profile-field');
+	await select.selectOption('holdupLarge');
+	await expect(page.getByTestId('run-profile-chart')).toBeVisible();
+	await page.getByTestId('run-profile-chart').scrollIntoViewIfNeeded();
+	await page.screenshot({ path: `${SHOTS}/section-classes-20-run-large.png` });
+	await select.selectOption('holdupSmall');
+	await page.screenshot({ path: `${SHOTS}/section-classes-21-run-small.png` });
+	await page.getByTestId('run-closures').scrollIntoViewIfNeeded();
+	await page.screenshot({ path: `${SHOTS}/section-classes-30-run-numbers.png`, fullPage: true });
+	await context.close();
+});
