@@ -187,6 +187,16 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 			}`
 		);
 	}
+	if (c.kind === 'cross-section' && classes && massFlux / rhoSp > classes.transitionVelocityMS) {
+		const dCol = c.geometry.diameterM;
+		// measured against Riquarts (1981) with the default classes, air–water (tests/solver/cross-section-classes.test.ts,
+		// `npm run bench` crossSection.circulationCurve): within 30 % in a 0.3 m column at 0.05–0.4 m/s
+		if (dCol < 0.2 || dCol > 0.6) {
+			warnings.push(
+				`The small + large bubble cross-section is checked against the centreline velocity of Riquarts (1981) in columns of about 0.3 m; at ${dCol} m its circulation can be off by a factor of two (a 1 m column: 0.5–1.5 times; 0.15 m above 0.2 m/s: no circulation; 3 m at 0.05 m/s: reversed), so treat it as an order of magnitude`
+			);
+		}
+	}
 	if (sizeClasses && massFlux / rhoSp > 0.03) {
 		// measured in a 0.3 m air–water column (tests/solver/size-classes.test.ts): 0.97 of the correlations at 0.02 m/s,
 		// 1.36 at 0.05 and 1.97 at 0.1 m/s, with d32 staying 5–6 mm

@@ -474,7 +474,11 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		}
 		sumClasses(alphaN, (k) => k.alphaN);
 		for (let i = 0; i < n; i++) {
-			if (alphaN[i] > MAX_HOLDUP) return fail(`Gas holdup ${alphaN[i].toPrecision(4)} in ${describeCell(i)} at t = ${st.timeS.toFixed(4)} s (allowed 0 to ${MAX_HOLDUP})`);
+			if (alphaN[i] > MAX_HOLDUP) {
+				// with classes the usual cause is the large bubbles gathering on the axis (README, cross-section bubble classes)
+				const split = nc > 1 ? `; ${cls.map((k) => `${k.spec.label.toLowerCase()} ${k.alphaN[i].toPrecision(3)}`).join(', ')}: the large bubbles gather on the axis faster than the turbulence spreads them` : '';
+				return fail(`Gas holdup ${alphaN[i].toPrecision(4)} in ${describeCell(i)} at t = ${st.timeS.toFixed(4)} s (allowed 0 to ${MAX_HOLDUP})${split}`);
+			}
 		}
 
 		// 3. axial momentum with the new holdup

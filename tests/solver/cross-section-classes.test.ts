@@ -11,6 +11,7 @@ import { createCrossSectionSimulation, crossSectionParameters, FLUX_RELAXATION_H
 import { tomiyamaLiftCoefficient } from '../../solver/closures/lift.js';
 import { akitaYoshidaHoldup } from '../../solver/correlations/holdup.js';
 import { hikitaHoldup } from '../../solver/correlations/churn.js';
+import { derivedNumbers } from '../../solver/derived.js';
 
 const g = 9.81;
 const rhoL = 998.2;
@@ -163,6 +164,21 @@ describe('cross-section model with small and large bubbles', () => {
 		}
 		const big = at(1, 0.3);
 		expect(big.results.design.sectionHoldup.value / correlationHoldup(big.c)).toBeGreaterThan(0.55);
+	});
+
+	it('warns in the editor outside the column sizes it is checked in, and fails a runaway on the axis with a diagnosis', () => {
+		const warned = (d: number, u: number) => derivedNumbers(classCase(d, u)).warnings.some((w) => w.includes('checked against the centreline velocity of Riquarts'));
+		expect(warned(0.3, 0.2)).toBe(false);
+		expect(warned(1, 0.2)).toBe(true);
+		expect(warned(0.15, 0.3)).toBe(true);
+		// below the transition there is only one class and nothing to warn of
+		expect(warned(1, 0.02)).toBe(false);
+		// 1 m at 0.4 m/s: the large bubbles gather on the axis until the holdup limit; the run fails within seconds
+		// of simulated time and says which class holds the gas (measured: large 0.70, small 0.10 at t ≈ 4.5 s)
+		const { sim } = runToSteady(classCase(1, 0.4));
+		expect(sim.state.status).toBe('failed');
+		expect(sim.state.message).toMatch(/^Gas holdup 0\.8\d* in cell 1 of 60 .*small bubbles 0\.\d+, large bubbles 0\.\d+: the large bubbles gather on the axis/);
+		expect(sim.state.timeS).toBeLessThan(10);
 	});
 
 	it('conserves each class’s gas in the section to round-off: it changes only by the class’s own flux-constraint source', () => {
