@@ -197,6 +197,8 @@ export function colebrookFrictionFactor(reynolds: number): number {
 /** A cross-section case of single-phase water flow in a pipe (no gas): the cross-section defaults otherwise. */
 export function pipeCase(o: { diameterM: number; velocityMS: number; cells: number }): CaseDocument {
 	const c = defaultCase('cross-section');
+	// no gas: the one-class model, whose pipe-flow numbers the verification page has always shown
+	c.bubbles.classes = 'single';
 	c.geometry.diameterM = o.diameterM;
 	c.sparging.superficialGasVelocityMS = 0;
 	c.sparging.superficialLiquidVelocityMS = o.velocityMS;
