@@ -51,8 +51,8 @@
  *   momentumImbalance  Σ V |α_l ρ_l ∂u_l/∂t + α ρ_g ∂u_g/∂t| / Σ V (|α_l (G − ρ_l g)| + |α (G − ρ_g g)|)
  * Steady: all four at or below the case's steady tolerance throughout 2 R/u_t of simulated time.
  */
-import type { CaseDocument, DragLaw } from '../case.js';
-import type { SwarmCorrection } from '../closures/swarm.js';
+import type { CaseDocument } from '../case.js';
+import type { GasClassConfig } from '../height/config.js';
 import type { Checkpoint, DesignNumber, Residuals, Results, RunStatus, Simulation, SimulationState, Snapshot, StepStatus } from '../types.js';
 import { dragCoefficient, eotvosNumber, terminalVelocity } from '../closures/drag.js';
 import { swarmDragFactor } from '../closures/swarm.js';
@@ -83,16 +83,11 @@ export const MAX_HOLDUP = 0.8;
 /** Residual ids, in the order kept in a checkpoint. */
 export const CROSS_SECTION_RESIDUALS = ['gasMassImbalance', 'liquidFluxError', 'holdupChangeRate', 'momentumImbalance'] as const;
 
-/** One bubble class of the section (PHYSICS §8.8): the one size of the one-class model, or small or large bubbles. */
-export interface CrossSectionClass {
-	/** `gas` for the one-class model, `small` and `large` for the two classes (snapshot field suffix) */
-	id: string;
-	label: string;
-	diameterM: number;
-	drag: DragLaw | 'spherical-cap';
-	swarm: SwarmCorrection;
-	/** factor on the interfacial drag (a swarm rising faster than one bubble by F has 1/F²) */
-	dragFactor: number;
+/**
+ * One bubble class of the section (PHYSICS §8.8): the one size of the one-class model (id `gas`), or small or large
+ * bubbles, as the height profile's class with what the radial model needs besides.
+ */
+export interface CrossSectionClass extends Omit<GasClassConfig, 'inflowShare'> {
 	eotvos: number;
 	/** Eötvös number of the bubble width (Tomiyama's lift) */
 	widthEotvos: number;
