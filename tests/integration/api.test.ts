@@ -32,7 +32,7 @@ import type { DbHandle } from '../../src/lib/server/db/index.js';
 import { apiTokens, auditLog, cases, columns, comparisons, measurements, memberships, residuals, runs, snapshots, teams, users, type Role } from '../../src/lib/server/db/schema.js';
 import { encodeSnapshot } from '../../src/lib/server/runs/codec.js';
 import { SOLVER_VERSION } from '../../solver/index.js';
-import { defaultCase, type CaseDocument } from '../../solver/case.js';
+import { defaultCase, SCHEMA_VERSION, type CaseDocument } from '../../solver/case.js';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const API_DIR = path.join(ROOT, 'src/routes/api/v1');
@@ -772,6 +772,16 @@ describe('ids in bodies and lists', () => {
 });
 
 describe('bodies, pages and filters', () => {
+	it('upgrades a case document of an earlier schema version, as an imported file is: a version-2 cross-section keeps its one size', async () => {
+		const r = await api({ token: tokens.analyst, method: 'POST', path: '/cases', body: { columnId: fx.columnId, document: { schemaVersion: 2, kind: 'cross-section', name: 'API v2 section' } } });
+		expect(r.status).toBe(201);
+		expect(r.json.document.schemaVersion).toBe(SCHEMA_VERSION);
+		expect(r.json.document.bubbles.classes).toBe('single');
+		const now = await api({ token: tokens.analyst, method: 'POST', path: '/cases', body: { columnId: fx.columnId, document: { schemaVersion: SCHEMA_VERSION, kind: 'cross-section', name: 'API v3 section' } } });
+		expect(now.status).toBe(201);
+		expect(now.json.document.bubbles.classes).toBe('small-large');
+	});
+
 	it('refuses an invalid case naming the field path, and stores nothing', async () => {
 		const [{ n: before }] = await handle.db.select({ n: sql<number>`count(*)::int` }).from(cases).where(eq(cases.teamId, home.team.id));
 		const r = await api({ token: tokens.analyst, method: 'POST', path: '/cases', body: { columnId: fx.columnId, document: { schemaVersion: 2, geometry: { heightM: 500 }, numerics: { cells: 'many' } } } });

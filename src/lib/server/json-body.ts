@@ -117,12 +117,13 @@ export async function readCapped(request: Request, maxBytes: number): Promise<Ui
  * Reads a JSON or form body and checks it with `schema`. Refusals: wrong content type 415, more
  * than `maxBytes` 413, unreadable JSON 400 `invalid_json`, unreadable form 400 `invalid_form`,
  * anything the schema refuses 400 `invalid_input` with one issue per problem. Form fields arrive
- * as strings (the last one of a repeated name; files are left out).
+ * as strings (the last one of a repeated name; files are left out). `prepare` rewrites the parsed
+ * input before the check (e.g. upgrading an older case document).
  */
 export async function readBody<S extends z.ZodType>(
 	request: Request,
 	schema: S,
-	options: { maxBytes?: number } = {}
+	options: { maxBytes?: number; prepare?: (input: unknown) => unknown } = {}
 ): Promise<BodyResult<z.output<S>>> {
 	const maxBytes = options.maxBytes ?? MAX_COMMAND_BODY_BYTES;
 	const contentType = request.headers.get('content-type') ?? '';
@@ -160,7 +161,7 @@ export async function readBody<S extends z.ZodType>(
 		}
 	}
 
-	const result = schema.safeParse(input);
+	const result = schema.safeParse(options.prepare ? options.prepare(input) : input);
 	if (result.success) return { ok: true, data: result.data };
 	const issues = inputIssues(result.error);
 	const message = issues.map((i) => i.message).join('; ');

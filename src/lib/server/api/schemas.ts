@@ -5,7 +5,7 @@
  * database rows into exactly that form. Ids are UUIDs except user ids (opaque strings).
  */
 import { z } from 'zod';
-import { caseKinds, caseSchema } from '../../../../solver/case.js';
+import { caseKinds, caseSchema, upgradeCaseDocument } from '../../../../solver/case.js';
 import { measurementKinds } from '../../measurements/kinds.js';
 import { uploadFormSchema } from '../../measurements/upload.js';
 import { studyKinds } from '../../studies/spec.js';
@@ -162,6 +162,17 @@ export const caseCreateBody = z.object(
 	{ error: 'The body must be a JSON object with columnId and document (the case)' }
 );
 export const caseUpdateBody = z.object({ document: caseSchema }, { error: 'The body must be a JSON object with document (the case)' });
+
+/**
+ * A case body's `document` of an earlier schema version upgraded as an imported file is (`upgradeCaseDocument`), so
+ * scripts written against an earlier version keep working; the body schemas and the OpenAPI document state the
+ * current version. Anything else is returned as it is, for the body schema to judge.
+ */
+export function upgradeBodyDocument(input: unknown): unknown {
+	if (!input || typeof input !== 'object' || Array.isArray(input) || !('document' in input)) return input;
+	const b = input as Record<string, unknown>;
+	return { ...b, document: upgradeCaseDocument(b.document) };
+}
 
 type CaseSummaryRow = Pick<Case, 'id' | 'columnId' | 'name' | 'kind' | 'schemaVersion' | 'createdAt' | 'updatedAt'>;
 

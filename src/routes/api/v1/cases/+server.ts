@@ -1,14 +1,15 @@
 /**
  * GET /api/v1/cases — the team's cases (without documents), newest first.
  * POST /api/v1/cases — create a case `{ columnId, document }`, checked with the editor's case
- * schema; refusals name the field path (`document.geometry.heightM`). Analysts and up.
+ * schema (a document of an earlier schema version is upgraded first, as an imported file is); refusals
+ * name the field path (`document.geometry.heightM`). Analysts and up.
  */
 import { requireMember } from '$lib/server/guard';
 import { errorResponse, readBody } from '$lib/server/json-body';
 import * as cases from '$lib/server/cases';
 import { ok, parseListQuery } from '$lib/server/api/http';
 import { listCasesPage, teamColumn } from '$lib/server/api/lists';
-import { caseCreateBody, caseDetailView, casesQuery, caseSummaryView } from '$lib/server/api/schemas';
+import { caseCreateBody, caseDetailView, casesQuery, caseSummaryView, upgradeBodyDocument } from '$lib/server/api/schemas';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -21,7 +22,7 @@ export const GET: RequestHandler = async (event) => {
 
 export const POST: RequestHandler = async (event) => {
 	const { team, user } = await requireMember(event, 'analyst');
-	const body = await readBody(event.request, caseCreateBody);
+	const body = await readBody(event.request, caseCreateBody, { prepare: upgradeBodyDocument });
 	if (!body.ok) return body.response;
 	const column = await teamColumn({ teamId: team.id, id: body.data.columnId });
 	if (!column) return errorResponse(404, 'not_found', 'Column not found.', [{ path: 'columnId', message: 'No column of your team has this id' }]);

@@ -7,7 +7,7 @@ import { requireMember } from '$lib/server/guard';
 import { readBody } from '$lib/server/json-body';
 import * as cases from '$lib/server/cases';
 import { notFound, ok } from '$lib/server/api/http';
-import { caseDetailView, caseUpdateBody } from '$lib/server/api/schemas';
+import { caseDetailView, caseUpdateBody, upgradeBodyDocument } from '$lib/server/api/schemas';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -21,7 +21,7 @@ export const PUT: RequestHandler = async (event) => {
 	const { team } = await requireMember(event, 'analyst');
 	const row = await cases.getCase({ teamId: team.id, id: event.params.id });
 	if (!row) return notFound('Case');
-	const body = await readBody(event.request, caseUpdateBody);
+	const body = await readBody(event.request, caseUpdateBody, { prepare: upgradeBodyDocument });
 	if (!body.ok) return body.response;
 	const updated = await cases.updateCase({ teamId: team.id, id: row.id, document: body.data.document });
 	if (!updated) return notFound('Case');
