@@ -15,7 +15,9 @@ export function interfacialArea(o: { holdup: number; diameterM: number }): numbe
 }
 
 /**
- * Akita & Yoshida (1973): k_L a D²/D_L = 0.6 Sc^0.5 Bo^0.62 Ga^0.31 ε^1.1, Sc = ν_l/D_L (constants from memory), 1/s.
+ * Akita & Yoshida (1973), Ind. Eng. Chem. Process Des. Dev. 12(1), 76–80: k_L a D²/D_L = 0.6 Sc^0.5 Bo^0.62 Ga^0.31 ε^1.1,
+ * Sc = ν_l/D_L, Ga = g D³/ν_l², 1/s (form and constants agree with a secondary transcription of the paper; the paper
+ * itself not seen). No diameter limit is applied here: their data reach 0.6 m (from memory).
  */
 export function akitaYoshidaKLa(o: ColumnInput & { holdup: number; diffusivityM2S: number }): number {
 	const { bond, galilei } = columnGroups(o);
