@@ -65,8 +65,8 @@ export const designCatalog: Record<string, QuantityEntry> = {
 		source: 'spheres of the class diameters (common practice)'
 	},
 	kLaPerS: {
-		label: 'kLa',
-		formula: 'k_L a with k_L = 2 √(D_L/(π t_c)), contact time t_c = d/u_r, summed over the classes',
+		label: 'kLa per aerated volume',
+		formula: 'k_L a with k_L = 2 √(D_L/(π t_c)), contact time t_c = d/u_r, summed over the classes, per unit aerated (gas + liquid) volume: 1 − ε times the same per liquid volume',
 		unit: '1/s',
 		source: 'Higbie (1935), Trans. AIChE 31, 365'
 	},
@@ -224,7 +224,12 @@ export const designCatalog: Record<string, QuantityEntry> = {
 		unit: 'kg/h',
 		source: 'ASCE/EWRI 2-06; C_s from Benson & Krause (1984)'
 	},
-	sotePercent: { label: 'Standard oxygen transfer efficiency', formula: 'SOTE = SOTR / oxygen mass flow in the gas fed × 100', unit: '%', source: 'ASCE/EWRI 2-06' },
+	sotePercent: {
+		label: 'Standard oxygen transfer efficiency',
+		formula: 'SOTE = SOTR / oxygen mass flow in the gas fed × 100; SOTR is referred to 1 atm (Ω = p_top/101.325 kPa), so above 1 bar SOTE falls as 1/p_top and is not the efficiency at the operating pressure (that is the transfer efficiency)',
+		unit: '%',
+		source: 'ASCE/EWRI 2-06'
+	},
 	sotePerMetrePercentM: { label: 'SOTE per metre of submergence', formula: 'SOTE / clear-liquid level above the sparger', unit: '%/m', source: 'definition (common practice for diffusers)' },
 	transferKLaPerS: {
 		label: 'Volume-averaged kLa',

@@ -617,7 +617,7 @@ class HeightSimulationImpl implements HeightSimulation {
 			gasResidenceTimeS: num(fin > 0 ? gasMass / fin : 0, 's', 'Gas residence time'),
 			meanSlipMS: num(meanSlip, 'm/s', 'Mean slip velocity'),
 			interfacialAreaPerM: num(area, '1/m', perClass ? 'Interfacial area (Σ 6ε_k/d_k)' : 'Interfacial area (6ε/d)'),
-			kLaPerS: num(kLa, '1/s', `kLa of ${c.fluids.solute} (Higbie penetration, t_c = d/u_r${perClass ? ', per class' : ''})`),
+			kLaPerS: num(kLa, '1/s', `kLa of ${c.fluids.solute} per aerated volume (Higbie penetration, t_c = d/u_r${perClass ? ', per class' : ''})`),
 			sauterDiameterM: num(perClass ? perClass.sauterM : d, 'm', 'Sauter mean diameter of the aerated region'),
 			regime: num(regime.value, '1', `Regime: ${regime.label}`),
 			liquidMassErrorRel: num(liquidErr, '1', 'Relative liquid inventory error'),
@@ -760,7 +760,7 @@ class HeightSimulationImpl implements HeightSimulation {
 			const sote = soluteFed > 0 ? (100 * sotr) / soluteFed : Number.NaN;
 			const submergence = cfg.clearLiquidLevelM;
 			design.sotrKgH = num(sotr * areaM2 * 3600, 'kg/h', 'Standard oxygen transfer rate SOTR (ASCE/EWRI 2-06: 20 °C, zero DO, 1 atm)');
-			design.sotePercent = num(sote, '%', 'Standard oxygen transfer efficiency SOTE (ASCE/EWRI 2-06)');
+			design.sotePercent = num(sote, '%', 'Standard oxygen transfer efficiency SOTE (ASCE/EWRI 2-06, referred to 1 atm)');
 			design.sotePerMetrePercentM = num(sote / submergence, '%/m', 'SOTE per metre of submergence (clear-liquid level above the sparger)');
 		}
 		return design;
