@@ -4,6 +4,7 @@
  */
 import { interpolateLinear } from './measurements/compare.js';
 import { getPath } from './components/case-editor/fields.js';
+import { categoricalDesign } from './fields.js';
 
 export interface CompareRun {
 	id: string;
@@ -45,6 +46,8 @@ export interface DesignRow {
 	deltas: (number | null)[];
 	/** (value − baseline) / |baseline|, per run */
 	relativeDeltas: (number | null)[];
+	/** for a categorical number (`categoricalDesign`) the category each run names, e.g. `core-peaked`; else null */
+	categories: (string | null)[];
 }
 
 /** Design numbers side by side with their deltas against the baseline run. */
@@ -56,10 +59,16 @@ export function designTable(options: { runs: CompareRun[]; baselineId: string })
 	return ids.map((id) => {
 		const meta = runs.map((r) => r.design?.[id]).find((d) => d);
 		const values = runs.map((r) => (r.design?.[id] && Number.isFinite(r.design[id].value) ? r.design[id].value : null));
+		if (categoricalDesign.has(id)) {
+			// `Holdup peak: core-peaked`: the name once, the category per run, no arithmetic on the codes
+			const categories = runs.map((r) => r.design?.[id]?.label.split(': ').slice(1).join(': ') || null);
+			const none = runs.map(() => null);
+			return { id, label: meta?.label.split(': ')[0] ?? id, unit: meta?.unit ?? '', values, deltas: none, relativeDeltas: none, categories };
+		}
 		const b = base.design?.[id]?.value;
 		const deltas = runs.map((r, i) => (r.id === base.id || values[i] === null || b === undefined ? null : (values[i] as number) - b));
 		const relativeDeltas = deltas.map((d) => (d === null || !b ? null : d / Math.abs(b)));
-		return { id, label: meta?.label ?? id, unit: meta?.unit ?? '', values, deltas, relativeDeltas };
+		return { id, label: meta?.label ?? id, unit: meta?.unit ?? '', values, deltas, relativeDeltas, categories: runs.map(() => null) };
 	});
 }
 

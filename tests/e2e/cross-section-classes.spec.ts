@@ -5,9 +5,12 @@
  * the core (large). Screenshots go to artifacts/screenshots (git-ignored).
  */
 import { expect, test } from '@playwright/test';
-import { openNewCaseOfPilot, ANALYST, SHOTS, signIn } from './demo';
+import { openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
 
-test.describe.configure({ timeout: 240_000 });
+test.describe.configure({ mode: 'serial', timeout: 240_000 });
+
+let caseUrl = '';
+let classesRunId = '';
 
 const number = async (text: Promise<string | null>) => Number((await text)?.replace(/[^0-9.eE+−-]/g, '').replace('−', '-'));
 
@@ -41,6 +44,8 @@ test('a churn-turbulent cross-section with small and large bubbles, set up in th
 
 	await page.getByTestId('queue-run').click();
 	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	classesRunId = page.url().split('/').pop()!;
+	caseUrl = (await page.locator('a[href^="/cases/"]').first().getAttribute('href'))!;
 	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
 
 	// solver test: 0.3 m at 0.2 m/s gives a section holdup of 0.20 (the correlations' mean 0.23), small bubbles at
@@ -69,4 +74,54 @@ test('a churn-turbulent cross-section with small and large bubbles, set up in th
 	await page.getByTestId('run-closures').scrollIntoViewIfNeeded();
 	await page.screenshot({ path: `${SHOTS}/section-classes-30-run-numbers.png`, fullPage: true });
 	await context.close();
+});
+
+test('one bubble size fails in churn-turbulent flow, and the lead compares the classes with and without lift', async ({ browser }) => {
+	expect(caseUrl).toMatch(/^\/cases\//);
+	const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+	const analyst = await context.newPage();
+	await signIn(analyst, ANALYST);
+	await analyst.goto(caseUrl);
+	await analyst.waitForLoadState('networkidle');
+	// the same 0.2 m/s with one 5 mm size: the slow bubbles pile up until the holdup limit (the gap the classes close)
+	await analyst.getByTestId('field-bubbles.classes').selectOption('single');
+	await analyst.getByTestId('queue-run').click();
+	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', 'failed', { timeout: 180_000 });
+	await expect(analyst.getByTestId('run-progress')).toContainText(/Gas holdup 0\.8\d* in cell/);
+	// the progress line says how far the run went, not the 0 steps it had when the page opened
+	expect(Number(await analyst.getByTestId('step-count').innerText())).toBeGreaterThan(10);
+	await analyst.getByTestId('run-progress').screenshot({ path: `${SHOTS}/section-classes-35-one-size-fails.png` });
+
+	// back to the classes, without lift: nothing separates them, so nothing drives the circulation
+	await analyst.goto(caseUrl);
+	await analyst.waitForLoadState('networkidle');
+	await analyst.getByTestId('field-bubbles.classes').selectOption('small-large');
+	await analyst.getByTestId('field-closures.lift').selectOption('none');
+	await analyst.getByTestId('queue-run').click();
+	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	const noLiftRunId = analyst.url().split('/').pop()!;
+	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
+	await context.close();
+
+	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+	const lead = await leadContext.newPage();
+	await signIn(lead, LEAD);
+	await lead.getByRole('link', { name: 'Compare', exact: true }).click();
+	await lead.getByTestId('compare-column').selectOption({ label: 'C-101' });
+	await lead.getByTestId('compare-start').click();
+	for (const id of [classesRunId, noLiftRunId]) await lead.locator(`input[name="runIds"][value="${id}"]`).check();
+	await lead.locator(`input[name="baselineRunId"][value="${classesRunId}"]`).check();
+	await lead.getByTestId('comparison-name').fill('C-101 section: lift on the bubble classes');
+	await lead.getByTestId('save-comparison').click();
+	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
+	const differing = lead.getByTestId('closure-table').locator('tr[data-differs="true"]');
+	await expect(differing).toHaveCount(1);
+	await expect(differing).toContainText('Lift');
+	// solver: 0.93 m/s on the axis with Tomiyama's lift, 0.006 m/s without (the classes stay mixed)
+	const delta = await lead.getByTestId('delta-centrelineLiquidVelocityMS-1').innerText();
+	expect(delta.startsWith('−') || delta.startsWith('-')).toBe(true);
+	await expect(lead.getByTestId('compare-design')).toContainText('Section-average holdup of the large bubbles');
+	await lead.screenshot({ path: `${SHOTS}/section-classes-40-comparison.png`, fullPage: true });
+	await leadContext.close();
 });

@@ -33,6 +33,15 @@ describe('comparison helpers', () => {
 		expect(row.relativeDeltas[1]).toBeCloseTo(-0.25, 12);
 	});
 
+	it('shows a categorical number by its category, with no arithmetic on the 0/1 codes', () => {
+		const peak = (id: string, where: string, v: number): CompareRun => ({ ...run(id, 'x', 0.2), design: { peakLocationSmall: { value: v, unit: '1', label: `Holdup peak of the small bubbles: ${where}` } } });
+		const [row] = designTable({ runs: [peak('a', 'wall-peaked', 1), peak('b', 'core-peaked', 0)], baselineId: 'a' });
+		expect(row.label).toBe('Holdup peak of the small bubbles');
+		expect(row.categories).toEqual(['wall-peaked', 'core-peaked']);
+		expect(row.deltas).toEqual([null, null]);
+		expect(row.relativeDeltas).toEqual([null, null]);
+	});
+
 	// a linear function is reproduced exactly by linear interpolation
 	it('interpolates a straight line exactly and clamps outside the range', () => {
 		const x = [0, 1, 2, 4];
