@@ -118,11 +118,21 @@ export class HeightModel {
 	private readonly classD: Float64Array[];
 	private readonly classW: Float64Array[];
 	private readonly classMass: Float64Array;
+	/** several classes: per face Σ_k w_k D_k, then the face pressure gradient */
+	private readonly gasE: Float64Array;
+	/** several classes: per face Σ_k w_k (u0_k − D_k Δp/h) */
+	private readonly gasF: Float64Array;
+	/** several classes: per face w_l D_l, w_l (u0_l − D_l Δp/h) and Δp/h of the old pressure */
+	private readonly liqE: Float64Array;
+	private readonly liqF: Float64Array;
+	private readonly gradOld: Float64Array;
 	// per-face scratch of the class elimination
 	private readonly kA: Float64Array;
 	private readonly kB: Float64Array;
 	private readonly kR: Float64Array;
 	private readonly kAg: Float64Array;
+	private readonly kInv: Float64Array;
+	private readonly kM: Float64Array;
 	// constants
 	private readonly psi: number;
 	private readonly eotvos: number;
@@ -131,9 +141,12 @@ export class HeightModel {
 	private readonly classEotvos: Float64Array;
 	private readonly classLaw: Int32Array;
 	private readonly classSwarmPow: Float64Array;
-	private readonly classDiameter: Float64Array;
 	/** 0.75 μ_l (drag factor)/d² of each class: K = α_k C_D·Re times this */
 	private readonly classDragScale: Float64Array;
+	/** ρ_l d/μ_l of each class: Re = |u_r| times this */
+	private readonly reScale: Float64Array;
+	/** spherical-cap classes: K = α_k |u_r| times this, (8/3)·Re/|u_r|·classDragScale */
+	private readonly capScale: Float64Array;
 	private readonly outsideGasDensity: number;
 	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
 	/** max |Δα_l|/Δt of the last step, 1/s */
@@ -193,10 +206,17 @@ export class HeightModel {
 			this.classW.push(nc === 1 ? this.wg : new Float64Array(n + 1));
 		}
 		this.classMass = new Float64Array(nc * n);
+		this.gasE = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.gasF = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.liqE = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.liqF = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.gradOld = new Float64Array(nc > 1 ? n + 1 : 0);
 		this.kA = new Float64Array(nc);
 		this.kB = new Float64Array(nc);
 		this.kR = new Float64Array(nc);
 		this.kAg = new Float64Array(nc);
+		this.kInv = new Float64Array(nc);
+		this.kM = new Float64Array(nc);
 		this.psi = gasCompressibility(cfg);
 		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
@@ -211,12 +231,14 @@ export class HeightModel {
 		this.classEotvos = new Float64Array(nc);
 		this.classLaw = new Int32Array(nc);
 		this.classSwarmPow = new Float64Array(nc);
-		this.classDiameter = new Float64Array(nc);
 		this.classDragScale = new Float64Array(nc);
+		this.reScale = new Float64Array(nc);
+		this.capScale = new Float64Array(nc);
 		for (let k = 0; k < nc; k++) {
 			const c = this.classes[k];
-			this.classDiameter[k] = c.diameterM;
 			this.classDragScale[k] = (0.75 * cfg.liquidViscosityPaS * c.dragFactor) / (c.diameterM * c.diameterM);
+			this.reScale[k] = (cfg.liquidDensityKgM3 * c.diameterM) / cfg.liquidViscosityPaS;
+			this.capScale[k] = (8 / 3) * this.reScale[k] * this.classDragScale[k];
 			const gAbs = Math.abs(cfg.gravityAxialMS2);
 			this.classEotvos[k] = eotvosNumber({ diameterM: c.diameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: gAbs });
 			this.classLaw[k] = c.drag === 'spherical-cap' ? SPHERICAL_CAP_CODE : DRAG_LAW_CODES[c.drag];
@@ -307,20 +329,25 @@ export class HeightModel {
 	mixGasVelocity(): void {
 		const { n, nc } = this;
 		const lf = this.liquidFraction;
-		for (let j = 0; j <= n; j++) {
-			const lo = j > 0 ? j - 1 : 0;
-			const hi = j < n ? j : n - 1;
-			let sw = 0;
-			let su = 0;
-			for (let k = 0; k < nc; k++) {
-				const y = this.classShare[k];
+		// class by class over the faces (sums in class order); weights in `gasE`, weighted sums in `gasF`
+		const sw = this.gasE;
+		const su = this.gasF;
+		sw.fill(0);
+		su.fill(0);
+		for (let k = 0; k < nc; k++) {
+			const y = this.classShare[k];
+			const uk = this.classVelocity[k];
+			for (let j = 0; j <= n; j++) {
+				const lo = j > 0 ? j - 1 : 0;
+				const hi = j < n ? j : n - 1;
+				// negative round-off holdups weigh nothing: two of opposite sign once cancelled to 0/0
 				const a = (1 - lf[lo]) * y[lo] + (1 - lf[hi]) * y[hi];
 				const aw = (a > 0 ? a : 0) + 1e-30;
-				sw += aw;
-				su += aw * this.classVelocity[k][j];
+				sw[j] += aw;
+				su[j] += aw * uk[j];
 			}
-			this.gasVelocity[j] = su / sw;
 		}
+		for (let j = 0; j <= n; j++) this.gasVelocity[j] = su[j] / sw[j];
 	}
 
 	/** Time step from the material Courant number, counting only phases present in a cell (positivity form). */
@@ -329,7 +356,8 @@ export class HeightModel {
 		const ul = this.liquidVelocity;
 		const lf = this.liquidFraction;
 		let speed = 0;
-		for (let i = 0; i < n; i++) {
+		if (this.nc > 1) speed = this.classSpeed();
+		else for (let i = 0; i < n; i++) {
 			for (let k = 0; k < this.nc; k++) {
 				const ug = this.classVelocity[k];
 				if ((1 - lf[i]) * this.classShare[k][i] > CFL_PRESENCE) {
@@ -355,6 +383,46 @@ export class HeightModel {
 		const left = cfg.endTimeS - this.timeS;
 		if (dt >= left * (1 - 1e-9)) dt = left;
 		return dt;
+	}
+
+	/**
+	 * `chooseTimeStep`'s largest outflow speed with several classes, class by class over the cells. The limiting
+	 * cell is the one the cell-by-cell loop would name: the first, in cell order (classes, then the liquid), to
+	 * reach the largest speed.
+	 */
+	private classSpeed(): number {
+		const { n, nc } = this;
+		const ul = this.liquidVelocity;
+		const lf = this.liquidFraction;
+		let speed = 0;
+		let key = 0;
+		let limit = this.limitingCell;
+		for (let k = 0; k < nc; k++) {
+			const ug = this.classVelocity[k];
+			const y = this.classShare[k];
+			for (let i = 0; i < n; i++) {
+				if ((1 - lf[i]) * y[i] > CFL_PRESENCE) {
+					const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
+					if (s > speed || (s === speed && s > 0 && i * (nc + 1) + k < key)) {
+						speed = s;
+						key = i * (nc + 1) + k;
+						limit = i;
+					}
+				}
+			}
+		}
+		for (let i = 0; i < n; i++) {
+			if (lf[i] > CFL_PRESENCE) {
+				const s = (ul[i + 1] > 0 ? ul[i + 1] : 0) - (ul[i] < 0 ? ul[i] : 0);
+				if (s > speed || (s === speed && s > 0 && i * (nc + 1) + nc < key)) {
+					speed = s;
+					key = i * (nc + 1) + nc;
+					limit = -1 - i;
+				}
+			}
+		}
+		this.limitingCell = limit;
+		return speed;
 	}
 
 	/** Face value of a cell field for the donor flux, with the optional TVD limiter. */
@@ -412,14 +480,12 @@ export class HeightModel {
 
 		// 1. face momentum: new velocity = u0 − D·(pressure difference)/h
 		const nc = this.nc;
-		for (let j = 0; j <= n; j++) {
-			solved[j] = 0;
-			ul0[j] = 0;
-			dl[j] = 0;
-			for (let k = 0; k < nc; k++) {
-				this.classU0[k][j] = 0;
-				this.classD[k][j] = 0;
-			}
+		solved.fill(0);
+		ul0.fill(0);
+		dl.fill(0);
+		for (let k = 0; k < nc; k++) {
+			this.classU0[k].fill(0);
+			this.classD[k].fill(0);
 		}
 		const top = cfg.top;
 		const jMax = top.kind === 'pressure' ? n : n - 1;
@@ -518,6 +584,7 @@ export class HeightModel {
 		}
 
 		// 2. donor weights from the old-time velocity direction (PHYSICS §18: a predicted direction can block the level face)
+		const donorCell = cfg.scheme === 'donor-cell';
 		for (let j = 1; j < n; j++) {
 			const cl = ul[j] * courantScale;
 			for (let k = 0; k < nc; k++) {
@@ -525,9 +592,14 @@ export class HeightModel {
 				const uk = this.classVelocity[k];
 				const w = this.classW[k];
 				const y = this.classShare[k];
-				const cg = uk[j] * courantScale;
-				const dn = uk[j] >= 0 ? j - 1 : j;
-				const base = uk[j] >= 0 ? this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[dn] : this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[dn];
+				const ukj = uk[j];
+				const dn = ukj >= 0 ? j - 1 : j;
+				// donor-cell: the donor's gas fraction itself (what `faceValue` returns for that scheme)
+				const base = donorCell
+					? (1 - lf[dn]) * rg[dn]
+					: ukj >= 0
+						? this.faceValue(lf, j - 1, j, j - 2, ukj * courantScale, false) * rg[dn]
+						: this.faceValue(lf, j, j - 1, j + 1, -(ukj * courantScale), false) * rg[dn];
 				w[j] = nc === 1 ? base : base * y[dn];
 			}
 			// liquid whose upwind cell is (nearly) empty while the other side is (nearly) full takes the other side
@@ -572,6 +644,33 @@ export class HeightModel {
 			hf[n] = dz;
 		}
 
+		// several classes: their gas mass flux coefficients summed once per face, E_j = Σ_k w_k D_k and
+		// F_j = Σ_k w_k (u0_k − D_k Δp_j/h_j), shared by the two cells of the face
+		const gasE = this.gasE;
+		const gasF = this.gasF;
+		const liqE = this.liqE;
+		const liqF = this.liqF;
+		const gradOld = this.gradOld;
+		if (nc > 1) {
+			for (let j = 0; j <= n; j++) {
+				const q = dpOld[j] / hf[j];
+				gradOld[j] = q;
+				liqE[j] = wl[j] * dl[j];
+				liqF[j] = wl[j] * (ul0[j] - dl[j] * q);
+				gasE[j] = 0;
+				gasF[j] = 0;
+			}
+			for (let k = 0; k < nc; k++) {
+				const w = this.classW[k];
+				const d0 = this.classD[k];
+				const u0 = this.classU0[k];
+				for (let j = 0; j <= n; j++) {
+					gasE[j] += w[j] * d0[j];
+					gasF[j] += w[j] * (u0[j] - d0[j] * gradOld[j]);
+				}
+			}
+		}
+
 		// 3. pressure: α ψ Δz/(ρ_g Δt) δp_i + Σ_faces (gas volume flux + liquid volume flux) = 0
 		const lo = this.triLo;
 		const di = this.triDi;
@@ -592,23 +691,10 @@ export class HeightModel {
 				fBot = wg[jb] * (ug0[jb] - (dg[jb] * dpOld[jb]) / hf[jb]) * inv + wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
 			} else {
 				// the gas volume flux of every class through each face
-				let et = wl[jt] * dl[jt];
-				let eb = wl[jb] * dl[jb];
-				let ft = wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
-				let fb = wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
-				for (let k = 0; k < nc; k++) {
-					const w = this.classW[k];
-					const d0 = this.classD[k];
-					const u0 = this.classU0[k];
-					et += w[jt] * d0[jt] * inv;
-					eb += w[jb] * d0[jb] * inv;
-					ft += w[jt] * (u0[jt] - (d0[jt] * dpOld[jt]) / hf[jt]) * inv;
-					fb += w[jb] * (u0[jb] - (d0[jb] * dpOld[jb]) / hf[jb]) * inv;
-				}
-				eTop = et / hf[jt];
-				eBot = eb / hf[jb];
-				fTop = ft;
-				fBot = fb;
+				eTop = (liqE[jt] + gasE[jt] * inv) / hf[jt];
+				eBot = (liqE[jb] + gasE[jb] * inv) / hf[jb];
+				fTop = liqF[jt] + gasF[jt] * inv;
+				fBot = liqF[jb] + gasF[jb] * inv;
 			}
 			const ci = rg[i] > 0 ? ((1 - lf[i]) * psi * dz) / (rg[i] * dt) : 0;
 			di[i] = ci + eTop + eBot;
@@ -640,10 +726,12 @@ export class HeightModel {
 		for (let i = 0; i < n; i++) p[i] += x[i];
 		const gf = this.gasFlux;
 		const lfx = this.liquidFlux;
+		// several classes: the face's pressure gradient kept (in gasE, no longer needed) for the class loops below
+		const gradF = gasE;
 		for (let j = 1; j <= n; j++) {
 			if (!solved[j]) {
 				gf[j] = 0;
-				if (nc > 1) for (let k = 0; k < nc; k++) this.classFlux[k][j] = 0;
+				if (nc > 1) gradF[j] = 0;
 				lfx[j] = wl[j] * ul0[j];
 				continue;
 			}
@@ -655,15 +743,28 @@ export class HeightModel {
 				ug[j] = ug0[j] - dg[j] * grad;
 				gf[j] = wg[j] * ug[j];
 			} else {
-				let sum = 0;
-				for (let k = 0; k < nc; k++) {
-					const uk = this.classVelocity[k];
-					uk[j] = this.classU0[k][j] - this.classD[k][j] * grad;
-					const fk = this.classW[k][j] * uk[j];
-					this.classFlux[k][j] = fk;
-					sum += fk;
+				gradF[j] = grad;
+				gf[j] = 0;
+			}
+		}
+		if (nc > 1) {
+			for (let k = 0; k < nc; k++) {
+				const uk = this.classVelocity[k];
+				const u0 = this.classU0[k];
+				const d0 = this.classD[k];
+				const w = this.classW[k];
+				const fl = this.classFlux[k];
+				for (let j = 1; j <= n; j++) {
+					if (!solved[j]) {
+						fl[j] = 0;
+						continue;
+					}
+					const u = u0[j] - d0[j] * gradF[j];
+					uk[j] = u;
+					const fk = w[j] * u;
+					fl[j] = fk;
+					gf[j] += fk;
 				}
-				gf[j] = sum;
 			}
 		}
 		if (top.kind === 'pressure' && top.liquid === 'feed') {
@@ -715,7 +816,9 @@ export class HeightModel {
 	 * The terms are those of the one-class loop in `advance`, per class, with the class holdup α_k = α y_k.
 	 */
 	private classFaceMomentum(dt: number, jMax: number): void {
-		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kA, kB, kR, kAg } = this;
+		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kA, kB, kR, kAg, kInv, kM } = this;
+		const { classLaw, classEotvos, classDragScale, classSwarmPow, reScale, capScale } = this;
+		const invDz = 1 / dz;
 		const lf = this.liquidFraction;
 		const p = this.pressure;
 		const rg = this.gasDensity;
@@ -759,68 +862,73 @@ export class HeightModel {
 				cvm = (0.5 * (1 + 2 * ac)) / (1 - ac);
 			}
 			const lam = frictionOn ? blasiusFrictionCoefficient(lff, rl, mul, ulj, cfg.diameterM) : 0;
+			// Fine grids, two classes (the 5000-cell failure): the interfacial pressure is a force
+			// C_p ρ_l u_r² (α_k/α) ∂α/∂z, quadratic in the slip like the drag, and at a dilute bubble front the
+			// relative gradient ∂ln α/∂z of the donor-cell profile grows as 1/Δz. Once C_p |∂ln α/∂z| exceeds the
+			// drag's (3/4) C_D/d (a holdup varying over less than a bubble size, outside the averaged model) the
+			// net coupling is an anti-drag and the slip has no equilibrium: du_r/dt ∝ u_r² runs away within a few
+			// hundred steps whatever the time step (large bubbles at 20-30 m/s at the front of the first gas at
+			// 0.4 mm cells; cap bubbles with the Davies-Taylor factor have a quarter of the small bubbles' drag per
+			// u_r², so they cross first). So per class the interfacial pressure may cancel the drag, never reverse
+			// it: the coupling is max(K + K_ip, 0), implicit. Where the face holds no gas (mean fraction at the
+			// floor) the gradient is round-off of holdups near zero divided by the floor and is dropped; negative
+			// round-off holdups count as zero.
+			// Each class takes its share of the gradient of the whole gas fraction: the gradient of a trace class's
+			// own fraction, against the fast slip of drops in the freeboard, would be a spurious force per unit mass.
+			const gb = 1 - lf[below];
+			const ga = 1 - lf[j];
+			const dadzGas = isTop || af <= PRESENT_EPS ? 0 : ((ga > 0 ? ga : 0) - (gb > 0 ? gb : 0)) * invDz;
+			const ipScale = cp * rl * dadzGas;
+			// face factors shared by the classes: the class's share of the face gas α_k/α times these
+			const invAg = 1 / ag;
+			const vScale = cvm * ((1 - w) * rl + w * alq * rgf * invAg);
+			const redScale = (rgf * dd) / mug;
+			const kdScale = (0.75 * alq * mug) / (dd * dd);
+			const lockScale = w > 0 ? CLASS_LOCK * w : 0;
+			const ugMean = this.gasVelocity[j];
 			let sumV = 0;
 			let sumVug = 0;
 			for (let k = 0; k < nc; k++) {
 				const y = this.classShare[k];
 				const uk = this.classVelocity[k];
-				const ab = (1 - lf[below]) * y[below];
-				const aa = isTop ? ab : (1 - lf[j]) * y[j];
+				const ab = gb * y[below];
+				const aa = isTop ? ab : ga * y[j];
 				const akf = isTop ? ab : 0.5 * (ab + aa);
 				const agk = akf > PRESENT_EPS ? akf : PRESENT_EPS;
+				const ratio = agk * invAg;
 				const ugj = uk[j];
 				const ur = ugj - ulj;
 				const aur = ur < 0 ? -ur : ur;
-				const dnG = ugj >= 0 ? below : isTop ? below : j;
-				up = ugj >= 0 ? uk[j - 1] : j < n ? uk[j + 1] : ugj;
-				const shareG = ((1 - lf[dnG]) * y[dnG]) / agk;
-				nu = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
-				const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
+				const upG = ugj >= 0 ? uk[j - 1] : j < n ? uk[j + 1] : ugj;
+				const shareG = (ugj >= 0 || isTop ? ab : aa) / agk;
+				const nuG = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
+				const ugs = ugj - (nuG < 1 ? nuG : 1) * (ugj - upG);
 				let kk = 0;
 				if (dragOn) {
-					const d = this.classDiameter[k];
-					const law = this.classLaw[k];
-					const re = (rl * aur * d) / mul;
-					const cdRe = law === SPHERICAL_CAP_CODE ? (8 / 3) * re : dragCdRe(law, re, this.classEotvos[k], af);
-					let kb = agk * cdRe * this.classDragScale[k];
-					const sp = this.classSwarmPow[k];
+					const law = classLaw[k];
+					let kb = law === SPHERICAL_CAP_CODE ? agk * aur * capScale[k] : agk * dragCdRe(law, aur * reScale[k], classEotvos[k], af) * classDragScale[k];
+					const sp = classSwarmPow[k];
 					if (sp !== 0) kb *= Math.exp(sp * Math.log(alq > 1e-6 ? alq : 1e-6));
 					kk = kb;
 					if (w > 0) {
 						// above the level the gas is continuous: the droplet drag, shared among the classes by their holdup
-						const red = (rgf * aur * dd) / mug;
+						const red = redScale * aur;
 						const cdRed = red <= 1000 ? 24 * (1 + 0.15 * (red > 0 ? Math.exp(0.687 * Math.log(red)) : 0)) : 0.44 * red;
-						const kd = ((0.75 * alq * mug * cdRed) / (dd * dd)) * (agk / ag);
-						kk = (1 - w) * kb + w * kd;
+						kk = (1 - w) * kb + w * (kdScale * cdRed * ratio);
 					}
 				}
-				const v = cvm * ((1 - w) * agk * rl + w * alq * rgf * (agk / ag));
-				// Fine grids, two classes (the 5000-cell failure): the interfacial pressure is a force
-				// C_p ρ_l u_r² (α_k/α) ∂α/∂z, quadratic in the slip like the drag, and at a dilute bubble front the
-				// relative gradient ∂ln α/∂z of the donor-cell profile grows as 1/Δz. Once C_p |∂ln α/∂z| exceeds the
-				// drag's (3/4) C_D/d (a holdup varying over less than a bubble size, outside the averaged model) the
-				// net coupling is an anti-drag and the slip has no equilibrium: du_r/dt ∝ u_r² runs away within a few
-				// hundred steps whatever the time step (large bubbles at 20-30 m/s at the front of the first gas at
-				// 0.4 mm cells; cap bubbles with the Davies-Taylor factor have a quarter of the small bubbles' drag per
-				// u_r², so they cross first). So per class the interfacial pressure may cancel the drag, never reverse
-				// it: the coupling is max(K + K_ip, 0), implicit. Where the face holds no gas (mean fraction at the
-				// floor) the gradient is round-off of holdups near zero divided by the floor and is dropped; negative
-				// round-off holdups count as zero.
-				// the class's share of the gradient of the whole gas fraction: the gradient of a trace class's own
-				// fraction, against the fast slip of drops in the freeboard, would be a spurious force per unit mass
-				const gb = 1 - lf[below];
-				const ga = 1 - lf[j];
-				const dadz = isTop || af <= PRESENT_EPS ? 0 : (((ga > 0 ? ga : 0) - (gb > 0 ? gb : 0)) / dz) * (agk / ag);
-				const kipRaw = cp * rl * ur * dadz;
+				const v = vScale * agk;
+				const kipRaw = ipScale * ur * ratio;
 				const kip = kk + kipRaw > 0 ? kipRaw : -kk;
 				const mg = agk * rgf;
-				const cdt = (kk + kip) * dt;
-				const sg = agk * rgf * g;
-				const b = v + cdt;
-				const lock = w > 0 ? CLASS_LOCK * w * mg : 0;
-				kA[k] = mg + b + lock;
+				const b = v + (kk + kip) * dt;
+				const lock = lockScale * mg;
+				const a = mg + b + lock;
+				kA[k] = a;
+				kInv[k] = 1 / a;
 				kB[k] = b;
-				kR[k] = (mg + v) * ugs - v * uls + dt * sg + lock * this.gasVelocity[j];
+				kM[k] = mg + lock;
+				kR[k] = (mg + v) * ugs - v * uls + dt * mg * g + lock * ugMean;
 				kAg[k] = agk;
 				sumV += v;
 				sumVug += v * ugs;
@@ -832,8 +940,8 @@ export class HeightModel {
 			solved[j] = 1;
 			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
 				for (let k = 0; k < nc; k++) {
-					this.classU0[k][j] = kR[k] / kA[k];
-					this.classD[k][j] = (dt * kAg[k]) / kA[k];
+					this.classU0[k][j] = kR[k] * kInv[k];
+					this.classD[k][j] = dt * kAg[k] * kInv[k];
 				}
 				ul0[j] = 0;
 				dl[j] = 0;
@@ -843,18 +951,19 @@ export class HeightModel {
 			let num = rlRhs;
 			let dnum = alq;
 			for (let k = 0; k < nc; k++) {
-				const q = kB[k] / kA[k];
-				sMat += q * (kA[k] - kB[k]);
+				const q = kB[k] * kInv[k];
+				sMat += q * kM[k];
 				num += q * kR[k];
 				dnum += q * kAg[k];
 			}
-			const u0 = num / sMat;
-			const d0 = (dt * dnum) / sMat;
+			const invS = 1 / sMat;
+			const u0 = num * invS;
+			const d0 = dt * dnum * invS;
 			ul0[j] = u0;
 			dl[j] = d0;
 			for (let k = 0; k < nc; k++) {
-				this.classU0[k][j] = (kR[k] + kB[k] * u0) / kA[k];
-				this.classD[k][j] = (dt * kAg[k] + kB[k] * d0) / kA[k];
+				this.classU0[k][j] = (kR[k] + kB[k] * u0) * kInv[k];
+				this.classD[k][j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
 			}
 		}
 	}
@@ -868,17 +977,30 @@ export class HeightModel {
 		const lf = this.liquidFraction;
 		const rg = this.gasDensity;
 		const m = this.classMass;
+		// class by class over the cells (sums in class order, as cell by cell); the cell's gas mass is kept in
+		// `gasE` and the sum of the class masses in `gasF`, free at this point of the step
+		const gas = this.gasE;
+		const sum = this.gasF;
 		for (let i = 0; i < n; i++) {
-			let sum = 0;
-			const gas = (1 - lf[i]) * rg[i];
-			for (let k = 0; k < nc; k++) {
-				const f = this.classFlux[k];
-				let v = gas * this.classShare[k][i] - dtOverDz * (f[i + 1] - f[i]);
+			gas[i] = (1 - lf[i]) * rg[i];
+			sum[i] = 0;
+		}
+		for (let k = 0; k < nc; k++) {
+			const f = this.classFlux[k];
+			const y = this.classShare[k];
+			const o = k * n;
+			for (let i = 0; i < n; i++) {
+				let v = gas[i] * y[i] - dtOverDz * (f[i + 1] - f[i]);
 				if (v < 0) v = 0;
-				m[k * n + i] = v;
-				sum += v;
+				m[o + i] = v;
+				sum[i] += v;
 			}
-			if (sum > 1e-300) for (let k = 0; k < nc; k++) this.classShare[k][i] = m[k * n + i] / sum;
+		}
+		for (let i = 0; i < n; i++) sum[i] = sum[i] > 1e-300 ? 1 / sum[i] : 0;
+		for (let k = 0; k < nc; k++) {
+			const y = this.classShare[k];
+			const o = k * n;
+			for (let i = 0; i < n; i++) if (sum[i] > 0) y[i] = m[o + i] * sum[i];
 		}
 	}
 
@@ -953,8 +1075,20 @@ export class HeightModel {
 			if (a < -1e-9 || a > 1 + 1e-9) return `holdup ${a.toPrecision(6)} is outside [0, 1] in ${where(i)}`;
 			return `pressure ${pi.toPrecision(6)} Pa is not positive in ${where(i)}`;
 		}
+		// several classes: one pass over each class's velocities first; the face loop names the first bad one
+		let classesBad = false;
+		for (let k = 1; k < this.nc && !classesBad; k++) {
+			const uk = this.classVelocity[k];
+			for (let j = 0; j <= n; j++) {
+				const u = uk[j];
+				if (!(u - u === 0)) {
+					classesBad = true;
+					break;
+				}
+			}
+		}
 		for (let j = 0; j <= n; j++) {
-			for (let k = 1; k < this.nc; k++) {
+			if (classesBad) for (let k = 1; k < this.nc; k++) {
 				if (!Number.isFinite(this.classVelocity[k][j])) return `velocity of the ${this.classes[k].label.toLowerCase()} is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
 			}
 			if (!Number.isFinite(this.gasVelocity[j]) || !Number.isFinite(this.liquidVelocity[j])) {
