@@ -585,9 +585,11 @@ export class HeightModel {
 
 		// 2. donor weights from the old-time velocity direction (PHYSICS §18: a predicted direction can block the level face)
 		const donorCell = cfg.scheme === 'donor-cell';
+		// several classes with donor-cell weights: those are taken in the face sums of the pressure step below
+		const weighClasses = nc === 1 || !donorCell;
 		for (let j = 1; j < n; j++) {
 			const cl = ul[j] * courantScale;
-			for (let k = 0; k < nc; k++) {
+			if (weighClasses) for (let k = 0; k < nc; k++) {
 				// each class is carried by its own velocity; its weight is the donor's gas times the class's share of it
 				const uk = this.classVelocity[k];
 				const w = this.classW[k];
@@ -664,6 +666,15 @@ export class HeightModel {
 				const w = this.classW[k];
 				const d0 = this.classD[k];
 				const u0 = this.classU0[k];
+				if (!weighClasses) {
+					// donor-cell: the donor's gas times the class's share of it
+					const uk = this.classVelocity[k];
+					const y = this.classShare[k];
+					for (let j = 1; j < n; j++) {
+						const dn = uk[j] >= 0 ? j - 1 : j;
+						w[j] = (1 - lf[dn]) * rg[dn] * y[dn];
+					}
+				}
 				for (let j = 0; j <= n; j++) {
 					gasE[j] += w[j] * d0[j];
 					gasF[j] += w[j] * (u0[j] - d0[j] * gradOld[j]);
@@ -836,6 +847,9 @@ export class HeightModel {
 		const courantScale = dt / dz;
 		const top = cfg.top;
 		const dragOn = this.lawIndex >= 0;
+		// droplet Reynolds number per ρ_g |u_r| and droplet drag per α_l C_D·Re
+		const redPerRhoG = dd / mug;
+		const kdPerAlq = (0.75 * mug) / (dd * dd);
 		for (let j = 1; j <= jMax; j++) {
 			const below = j - 1;
 			const isTop = j === n;
@@ -882,8 +896,8 @@ export class HeightModel {
 			// face factors shared by the classes: the class's share of the face gas α_k/α times these
 			const invAg = 1 / ag;
 			const vScale = cvm * ((1 - w) * rl + w * alq * rgf * invAg);
-			const redScale = (rgf * dd) / mug;
-			const kdScale = (0.75 * alq * mug) / (dd * dd);
+			const redScale = rgf * redPerRhoG;
+			const kdScale = alq * kdPerAlq;
 			const lockScale = w > 0 ? CLASS_LOCK * w : 0;
 			const ugMean = this.gasVelocity[j];
 			let sumV = 0;
