@@ -127,7 +127,6 @@ export class HeightModel {
 	private readonly liqF: Float64Array;
 	private readonly gradOld: Float64Array;
 	// per-face scratch of the class elimination
-	private readonly kA: Float64Array;
 	private readonly kB: Float64Array;
 	private readonly kR: Float64Array;
 	private readonly kAg: Float64Array;
@@ -211,7 +210,6 @@ export class HeightModel {
 		this.liqE = new Float64Array(nc > 1 ? n + 1 : 0);
 		this.liqF = new Float64Array(nc > 1 ? n + 1 : 0);
 		this.gradOld = new Float64Array(nc > 1 ? n + 1 : 0);
-		this.kA = new Float64Array(nc);
 		this.kB = new Float64Array(nc);
 		this.kR = new Float64Array(nc);
 		this.kAg = new Float64Array(nc);
@@ -337,15 +335,24 @@ export class HeightModel {
 		for (let k = 0; k < nc; k++) {
 			const y = this.classShare[k];
 			const uk = this.classVelocity[k];
-			for (let j = 0; j <= n; j++) {
-				const lo = j > 0 ? j - 1 : 0;
-				const hi = j < n ? j : n - 1;
-				// negative round-off holdups weigh nothing: two of opposite sign once cancelled to 0/0
-				const a = (1 - lf[lo]) * y[lo] + (1 - lf[hi]) * y[hi];
-				const aw = (a > 0 ? a : 0) + 1e-30;
+			// negative round-off holdups weigh nothing: two of opposite sign once cancelled to 0/0
+			let gLo = (1 - lf[0]) * y[0];
+			let a = gLo + gLo;
+			let aw = (a > 0 ? a : 0) + 1e-30;
+			sw[0] += aw;
+			su[0] += aw * uk[0];
+			for (let j = 1; j < n; j++) {
+				const gHi = (1 - lf[j]) * y[j];
+				a = gLo + gHi;
+				aw = (a > 0 ? a : 0) + 1e-30;
 				sw[j] += aw;
 				su[j] += aw * uk[j];
+				gLo = gHi;
 			}
+			a = gLo + gLo;
+			aw = (a > 0 ? a : 0) + 1e-30;
+			sw[n] += aw;
+			su[n] += aw * uk[n];
 		}
 		for (let j = 0; j <= n; j++) this.gasVelocity[j] = su[j] / sw[j];
 	}
@@ -827,7 +834,11 @@ export class HeightModel {
 	 * The terms are those of the one-class loop in `advance`, per class, with the class holdup α_k = α y_k.
 	 */
 	private classFaceMomentum(dt: number, jMax: number): void {
-		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kA, kB, kR, kAg, kInv, kM } = this;
+		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kB, kR, kAg, kInv, kM } = this;
+		const shares = this.classShare;
+		const vels = this.classVelocity;
+		const u0s = this.classU0;
+		const ds = this.classD;
 		const { classLaw, classEotvos, classDragScale, classSwarmPow, reScale, capScale } = this;
 		const invDz = 1 / dz;
 		const lf = this.liquidFraction;
@@ -903,8 +914,8 @@ export class HeightModel {
 			let sumV = 0;
 			let sumVug = 0;
 			for (let k = 0; k < nc; k++) {
-				const y = this.classShare[k];
-				const uk = this.classVelocity[k];
+				const y = shares[k];
+				const uk = vels[k];
 				const ab = gb * y[below];
 				const aa = isTop ? ab : ga * y[j];
 				const akf = isTop ? ab : 0.5 * (ab + aa);
@@ -937,9 +948,7 @@ export class HeightModel {
 				const mg = agk * rgf;
 				const b = v + (kk + kip) * dt;
 				const lock = lockScale * mg;
-				const a = mg + b + lock;
-				kA[k] = a;
-				kInv[k] = 1 / a;
+				kInv[k] = 1 / (mg + b + lock);
 				kB[k] = b;
 				kM[k] = mg + lock;
 				kR[k] = (mg + v) * ugs - v * uls + dt * mg * g + lock * ugMean;
@@ -954,8 +963,8 @@ export class HeightModel {
 			solved[j] = 1;
 			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
 				for (let k = 0; k < nc; k++) {
-					this.classU0[k][j] = kR[k] * kInv[k];
-					this.classD[k][j] = dt * kAg[k] * kInv[k];
+					u0s[k][j] = kR[k] * kInv[k];
+					ds[k][j] = dt * kAg[k] * kInv[k];
 				}
 				ul0[j] = 0;
 				dl[j] = 0;
@@ -976,8 +985,8 @@ export class HeightModel {
 			ul0[j] = u0;
 			dl[j] = d0;
 			for (let k = 0; k < nc; k++) {
-				this.classU0[k][j] = (kR[k] + kB[k] * u0) * kInv[k];
-				this.classD[k][j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
+				u0s[k][j] = (kR[k] + kB[k] * u0) * kInv[k];
+				ds[k][j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
 			}
 		}
 	}
