@@ -131,7 +131,6 @@ export class HeightModel {
 	private readonly kR: Float64Array;
 	private readonly kAg: Float64Array;
 	private readonly kInv: Float64Array;
-	private readonly kM: Float64Array;
 	// constants
 	private readonly psi: number;
 	private readonly eotvos: number;
@@ -214,7 +213,6 @@ export class HeightModel {
 		this.kR = new Float64Array(nc);
 		this.kAg = new Float64Array(nc);
 		this.kInv = new Float64Array(nc);
-		this.kM = new Float64Array(nc);
 		this.psi = gasCompressibility(cfg);
 		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
@@ -834,7 +832,7 @@ export class HeightModel {
 	 * The terms are those of the one-class loop in `advance`, per class, with the class holdup α_k = α y_k.
 	 */
 	private classFaceMomentum(dt: number, jMax: number): void {
-		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kB, kR, kAg, kInv, kM } = this;
+		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kB, kR, kAg, kInv } = this;
 		const shares = this.classShare;
 		const vels = this.classVelocity;
 		const u0s = this.classU0;
@@ -913,6 +911,12 @@ export class HeightModel {
 			const ugMean = this.gasVelocity[j];
 			let sumV = 0;
 			let sumVug = 0;
+			// the liquid equation's elimination of the classes, Σ_k q_k (m_k + lock_k), Σ_k q_k r_k, Σ_k q_k α_k with
+			// q_k = b_k/a_k, gathered in the same pass
+			const ml = alq * rl;
+			let sMat = ml + lam * dt;
+			let numK = 0;
+			let dnum = alq;
 			for (let k = 0; k < nc; k++) {
 				const y = shares[k];
 				const uk = vels[k];
@@ -948,15 +952,19 @@ export class HeightModel {
 				const mg = agk * rgf;
 				const b = v + (kk + kip) * dt;
 				const lock = lockScale * mg;
-				kInv[k] = 1 / (mg + b + lock);
+				const inv = 1 / (mg + b + lock);
+				const r = (mg + v) * ugs - v * uls + dt * mg * g + lock * ugMean;
+				const q = b * inv;
+				kInv[k] = inv;
 				kB[k] = b;
-				kM[k] = mg + lock;
-				kR[k] = (mg + v) * ugs - v * uls + dt * mg * g + lock * ugMean;
+				kR[k] = r;
 				kAg[k] = agk;
+				sMat += q * (mg + lock);
+				numK += q * r;
+				dnum += q * agk;
 				sumV += v;
 				sumVug += v * ugs;
 			}
-			const ml = alq * rl;
 			const rlRhs = (ml + sumV) * uls - sumVug + dt * alq * rl * g;
 			hf[j] = isTop ? 0.5 * dz : dz;
 			dpOld[j] = isTop ? top.pressurePa - p[below] : p[j] - p[below];
@@ -970,15 +978,7 @@ export class HeightModel {
 				dl[j] = 0;
 				continue;
 			}
-			let sMat = ml + lam * dt;
-			let num = rlRhs;
-			let dnum = alq;
-			for (let k = 0; k < nc; k++) {
-				const q = kB[k] * kInv[k];
-				sMat += q * kM[k];
-				num += q * kR[k];
-				dnum += q * kAg[k];
-			}
+			const num = rlRhs + numK;
 			const invS = 1 / sMat;
 			const u0 = num * invS;
 			const d0 = dt * dnum * invS;
