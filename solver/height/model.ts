@@ -763,23 +763,37 @@ export class HeightModel {
 				gf[j] = 0;
 			}
 		}
+		const r = dt / dz;
 		if (nc > 1) {
+			// class velocities and fluxes, and with them each class's gas mass after the step (`updateClassShares`):
+			// the cell's gas (old) in `liqE`, the sum of its class masses in `liqF`, both free by now
+			const gas = liqE;
+			const sum = liqF;
+			for (let i = 0; i < n; i++) gas[i] = (1 - lf[i]) * rg[i];
+			const m = this.classMass;
 			for (let k = 0; k < nc; k++) {
 				const uk = this.classVelocity[k];
 				const u0 = this.classU0[k];
 				const d0 = this.classD[k];
 				const w = this.classW[k];
 				const fl = this.classFlux[k];
+				const y = this.classShare[k];
+				const o = k * n;
+				fl[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S * this.classes[k].inflowShare : 0;
 				for (let j = 1; j <= n; j++) {
-					if (!solved[j]) {
-						fl[j] = 0;
-						continue;
+					let fk = 0;
+					if (solved[j]) {
+						const u = u0[j] - d0[j] * gradF[j];
+						uk[j] = u;
+						fk = w[j] * u;
+						gf[j] += fk;
 					}
-					const u = u0[j] - d0[j] * gradF[j];
-					uk[j] = u;
-					const fk = w[j] * u;
 					fl[j] = fk;
-					gf[j] += fk;
+					const i = j - 1;
+					let v = gas[i] * y[i] - r * (fk - fl[i]);
+					if (v < 0) v = 0;
+					m[o + i] = v;
+					sum[i] = k === 0 ? v : sum[i] + v;
 				}
 			}
 		}
@@ -788,11 +802,7 @@ export class HeightModel {
 		}
 		gf[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S : 0;
 		lfx[0] = bottom.kind === 'inflow' ? bottom.liquidVolumeFluxMS : 0;
-		const r = dt / dz;
-		if (nc > 1) {
-			for (let k = 0; k < nc; k++) this.classFlux[k][0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S * this.classes[k].inflowShare : 0;
-			this.updateClassShares(r);
-		}
+		if (nc > 1) this.updateClassShares(liqF);
 
 		// 5. liquid fraction, conservative; over-drained cells repaired from the neighbour that took the liquid
 		const old = this.lfOld;
@@ -992,33 +1002,13 @@ export class HeightModel {
 	}
 
 	/**
-	 * Class shares after the step: each class's gas mass is carried by its own flux (conservative, donor-cell);
-	 * the cell's gas is then divided among the classes in proportion to those masses.
+	 * Class shares after the step: each class's gas mass is carried by its own flux (conservative, donor-cell; the
+	 * masses `classMass` and their sum per cell are formed with the fluxes in `advance`); the cell's gas is then
+	 * divided among the classes in proportion to those masses.
 	 */
-	private updateClassShares(dtOverDz: number): void {
+	private updateClassShares(sum: Float64Array): void {
 		const { n, nc } = this;
-		const lf = this.liquidFraction;
-		const rg = this.gasDensity;
 		const m = this.classMass;
-		// class by class over the cells (sums in class order, as cell by cell); the cell's gas mass is kept in
-		// `gasE` and the sum of the class masses in `gasF`, free at this point of the step
-		const gas = this.gasE;
-		const sum = this.gasF;
-		for (let i = 0; i < n; i++) {
-			gas[i] = (1 - lf[i]) * rg[i];
-			sum[i] = 0;
-		}
-		for (let k = 0; k < nc; k++) {
-			const f = this.classFlux[k];
-			const y = this.classShare[k];
-			const o = k * n;
-			for (let i = 0; i < n; i++) {
-				let v = gas[i] * y[i] - dtOverDz * (f[i + 1] - f[i]);
-				if (v < 0) v = 0;
-				m[o + i] = v;
-				sum[i] += v;
-			}
-		}
 		for (let i = 0; i < n; i++) sum[i] = sum[i] > 1e-300 ? 1 / sum[i] : 0;
 		for (let k = 0; k < nc; k++) {
 			const y = this.classShare[k];
