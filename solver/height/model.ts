@@ -118,13 +118,17 @@ export class HeightModel {
 	private readonly classD: Float64Array[];
 	private readonly classW: Float64Array[];
 	private readonly classMass: Float64Array;
-	/** several classes: per face Σ_k w_k D_k, then the face pressure gradient */
+	/**
+	 * Several classes, scratch of n + 1 values reused within a step: per face Σ_k w_k D_k (pressure step), then the
+	 * face pressure gradient (velocity update), then the weights of the mean gas velocity (`mixGasVelocity`)
+	 */
 	private readonly gasE: Float64Array;
-	/** several classes: per face Σ_k w_k (u0_k − D_k Δp/h) */
+	/** per face Σ_k w_k (u0_k − D_k Δp/h) (pressure step), then the weighted sums of the mean gas velocity */
 	private readonly gasF: Float64Array;
-	/** several classes: per face w_l D_l, w_l (u0_l − D_l Δp/h) and Δp/h of the old pressure */
+	/** per face w_l D_l and w_l (u0_l − D_l Δp/h) (pressure step), then per cell the gas mass and the sum of the class masses */
 	private readonly liqE: Float64Array;
 	private readonly liqF: Float64Array;
+	/** per face Δp/h of the old pressure */
 	private readonly gradOld: Float64Array;
 	// per-face scratch of the class elimination
 	private readonly kB: Float64Array;
