@@ -24,7 +24,9 @@
  * with the gas momentum equation above (its own drag, virtual mass and share of the interfacial pressure) and its
  * own continuity; they share the pressure. Per face the (N+1)×(N+1) block is an arrow (each class couples only
  * to the liquid) and is eliminated in O(N) (`classFaceMomentum`); the pressure step stays one tridiagonal solve.
- * With one class the arithmetic is that of the one-class model, operation for operation.
+ * One difference from the one-class face loop: a class's interfacial pressure may cancel its drag but not reverse
+ * it (`classFaceMomentum`), where the one-class loop leaves a net negative coupling explicit; the one-class
+ * arithmetic itself is unchanged.
  *
  * Boundaries: bottom inflow (gas mass flux, liquid volume flux) or wall; top pressure outlet (gas leaves
  * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
