@@ -334,29 +334,28 @@ export class HeightModel {
 		// class by class over the faces (sums in class order); weights in `gasE`, weighted sums in `gasF`
 		const sw = this.gasE;
 		const su = this.gasF;
-		sw.fill(0);
-		su.fill(0);
 		for (let k = 0; k < nc; k++) {
 			const y = this.classShare[k];
 			const uk = this.classVelocity[k];
+			const first = k === 0;
 			// negative round-off holdups weigh nothing: two of opposite sign once cancelled to 0/0
 			let gLo = (1 - lf[0]) * y[0];
 			let a = gLo + gLo;
 			let aw = (a > 0 ? a : 0) + 1e-30;
-			sw[0] += aw;
-			su[0] += aw * uk[0];
+			sw[0] = first ? aw : sw[0] + aw;
+			su[0] = first ? aw * uk[0] : su[0] + aw * uk[0];
 			for (let j = 1; j < n; j++) {
 				const gHi = (1 - lf[j]) * y[j];
 				a = gLo + gHi;
 				aw = (a > 0 ? a : 0) + 1e-30;
-				sw[j] += aw;
-				su[j] += aw * uk[j];
+				sw[j] = first ? aw : sw[j] + aw;
+				su[j] = first ? aw * uk[j] : su[j] + aw * uk[j];
 				gLo = gHi;
 			}
 			a = gLo + gLo;
 			aw = (a > 0 ? a : 0) + 1e-30;
-			sw[n] += aw;
-			su[n] += aw * uk[n];
+			sw[n] = first ? aw : sw[n] + aw;
+			su[n] = first ? aw * uk[n] : su[n] + aw * uk[n];
 		}
 		for (let j = 0; j <= n; j++) this.gasVelocity[j] = su[j] / sw[j];
 	}
@@ -491,12 +490,20 @@ export class HeightModel {
 
 		// 1. face momentum: new velocity = u0 − D·(pressure difference)/h
 		const nc = this.nc;
-		solved.fill(0);
-		ul0.fill(0);
-		dl.fill(0);
-		for (let k = 0; k < nc; k++) {
-			this.classU0[k].fill(0);
-			this.classD[k].fill(0);
+		if (nc > 1) {
+			// `classFaceMomentum` sets every face it solves: only the two ends start from zero
+			solved[0] = solved[n] = 0;
+			ul0[0] = ul0[n] = dl[0] = dl[n] = 0;
+			for (let k = 0; k < nc; k++) {
+				this.classU0[k][0] = this.classU0[k][n] = 0;
+				this.classD[k][0] = this.classD[k][n] = 0;
+			}
+		} else {
+			solved.fill(0);
+			ul0.fill(0);
+			dl.fill(0);
+			this.classU0[0].fill(0);
+			this.classD[0].fill(0);
 		}
 		const top = cfg.top;
 		const jMax = top.kind === 'pressure' ? n : n - 1;
