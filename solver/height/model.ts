@@ -120,6 +120,10 @@ export class HeightModel {
 	private readonly classD: Float64Array[];
 	private readonly classW: Float64Array[];
 	private readonly classMass: Float64Array;
+	private readonly flatShare: Float64Array;
+	private readonly flatVelocity: Float64Array;
+	private readonly flatU0: Float64Array;
+	private readonly flatD: Float64Array;
 	/**
 	 * Several classes, scratch of n + 1 values reused within a step: per face Σ_k w_k D_k (pressure step), then the
 	 * face pressure gradient (velocity update), then the weights of the mean gas velocity (`mixGasVelocity`)
@@ -199,14 +203,21 @@ export class HeightModel {
 		this.classU0 = [];
 		this.classD = [];
 		this.classW = [];
+		// several classes: shares, velocities and face coefficients of all classes in one array each, class k's
+		// values at offset k n (cells) or k (n + 1) (faces); the per-class arrays are views into them
+		this.flatShare = new Float64Array(nc > 1 ? nc * n : 0);
+		this.flatVelocity = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
+		this.flatU0 = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
+		this.flatD = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
 		for (let k = 0; k < nc; k++) {
-			const share = new Float64Array(n);
+			const share = nc === 1 ? new Float64Array(n) : this.flatShare.subarray(k * n, (k + 1) * n);
 			share.fill(nc === 1 || k === 0 ? 1 : 0);
 			this.classShare.push(share);
-			this.classVelocity.push(nc === 1 ? this.gasVelocity : new Float64Array(n + 1));
+			const faces = (a: Float64Array) => a.subarray(k * (n + 1), (k + 1) * (n + 1));
+			this.classVelocity.push(nc === 1 ? this.gasVelocity : faces(this.flatVelocity));
 			this.classFlux.push(nc === 1 ? this.gasFlux : new Float64Array(n + 1));
-			this.classU0.push(nc === 1 ? this.ug0 : new Float64Array(n + 1));
-			this.classD.push(nc === 1 ? this.dg : new Float64Array(n + 1));
+			this.classU0.push(nc === 1 ? this.ug0 : faces(this.flatU0));
+			this.classD.push(nc === 1 ? this.dg : faces(this.flatD));
 			this.classW.push(nc === 1 ? this.wg : new Float64Array(n + 1));
 		}
 		this.classMass = new Float64Array(nc * n);
@@ -856,10 +867,11 @@ export class HeightModel {
 	 */
 	private classFaceMomentum(dt: number, jMax: number): void {
 		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kB, kR, kAg, kInv } = this;
-		const shares = this.classShare;
-		const vels = this.classVelocity;
-		const u0s = this.classU0;
-		const ds = this.classD;
+		const Y = this.flatShare;
+		const V = this.flatVelocity;
+		const U0 = this.flatU0;
+		const D = this.flatD;
+		const nf = n + 1;
 		const { classLaw, classEotvos, classDragScale, classSwarmPow, reScale, capScale } = this;
 		const invDz = 1 / dz;
 		const lf = this.liquidFraction;
@@ -941,17 +953,17 @@ export class HeightModel {
 			let numK = 0;
 			let dnum = alq;
 			for (let k = 0; k < nc; k++) {
-				const y = shares[k];
-				const uk = vels[k];
-				const ab = gb * y[below];
-				const aa = isTop ? ab : ga * y[j];
+				const yo = k * n;
+				const vo = k * nf + j;
+				const ab = gb * Y[yo + below];
+				const aa = isTop ? ab : ga * Y[yo + j];
 				const akf = isTop ? ab : 0.5 * (ab + aa);
 				const agk = akf > PRESENT_EPS ? akf : PRESENT_EPS;
 				const ratio = agk * invAg;
-				const ugj = uk[j];
+				const ugj = V[vo];
 				const ur = ugj - ulj;
 				const aur = ur < 0 ? -ur : ur;
-				const upG = ugj >= 0 ? uk[j - 1] : j < n ? uk[j + 1] : ugj;
+				const upG = ugj >= 0 ? V[vo - 1] : j < n ? V[vo + 1] : ugj;
 				const shareG = (ugj >= 0 || isTop ? ab : aa) / agk;
 				const nuG = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
 				const ugs = ugj - (nuG < 1 ? nuG : 1) * (ugj - upG);
@@ -994,8 +1006,8 @@ export class HeightModel {
 			solved[j] = 1;
 			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
 				for (let k = 0; k < nc; k++) {
-					u0s[k][j] = kR[k] * kInv[k];
-					ds[k][j] = dt * kAg[k] * kInv[k];
+					U0[k * nf + j] = kR[k] * kInv[k];
+					D[k * nf + j] = dt * kAg[k] * kInv[k];
 				}
 				ul0[j] = 0;
 				dl[j] = 0;
@@ -1008,8 +1020,8 @@ export class HeightModel {
 			ul0[j] = u0;
 			dl[j] = d0;
 			for (let k = 0; k < nc; k++) {
-				u0s[k][j] = (kR[k] + kB[k] * u0) * kInv[k];
-				ds[k][j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
+				U0[k * nf + j] = (kR[k] + kB[k] * u0) * kInv[k];
+				D[k * nf + j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
 			}
 		}
 	}
