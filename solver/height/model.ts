@@ -24,7 +24,9 @@
  * with the gas momentum equation above (its own drag, virtual mass and share of the interfacial pressure) and its
  * own continuity; they share the pressure. Per face the (N+1)×(N+1) block is an arrow (each class couples only
  * to the liquid) and is eliminated in O(N) (`classFaceMomentum`); the pressure step stays one tridiagonal solve.
- * With one class the arithmetic is that of the one-class model, operation for operation.
+ * One difference from the one-class face loop: a class's interfacial pressure may cancel its drag but not reverse
+ * it (`classFaceMomentum`), where the one-class loop leaves a net negative coupling explicit; the one-class
+ * arithmetic itself is unchanged.
  *
  * Boundaries: bottom inflow (gas mass flux, liquid volume flux) or wall; top pressure outlet (gas leaves
  * or enters as pure gas; liquid closed, open or fed) or a wall with a pinned pressure.
@@ -118,11 +120,27 @@ export class HeightModel {
 	private readonly classD: Float64Array[];
 	private readonly classW: Float64Array[];
 	private readonly classMass: Float64Array;
+	private readonly flatShare: Float64Array;
+	private readonly flatVelocity: Float64Array;
+	private readonly flatU0: Float64Array;
+	private readonly flatD: Float64Array;
+	/**
+	 * Several classes, scratch of n + 1 values reused within a step: per face Σ_k w_k D_k (pressure step), then the
+	 * face pressure gradient (velocity update), then the weights of the mean gas velocity (`mixGasVelocity`)
+	 */
+	private readonly gasE: Float64Array;
+	/** per face Σ_k w_k (u0_k − D_k Δp/h) (pressure step), then the weighted sums of the mean gas velocity */
+	private readonly gasF: Float64Array;
+	/** per face w_l D_l and w_l (u0_l − D_l Δp/h) (pressure step), then per cell the gas mass and the sum of the class masses */
+	private readonly liqE: Float64Array;
+	private readonly liqF: Float64Array;
+	/** per face Δp/h of the old pressure */
+	private readonly gradOld: Float64Array;
 	// per-face scratch of the class elimination
-	private readonly kA: Float64Array;
 	private readonly kB: Float64Array;
 	private readonly kR: Float64Array;
 	private readonly kAg: Float64Array;
+	private readonly kInv: Float64Array;
 	// constants
 	private readonly psi: number;
 	private readonly eotvos: number;
@@ -131,9 +149,12 @@ export class HeightModel {
 	private readonly classEotvos: Float64Array;
 	private readonly classLaw: Int32Array;
 	private readonly classSwarmPow: Float64Array;
-	private readonly classDiameter: Float64Array;
 	/** 0.75 μ_l (drag factor)/d² of each class: K = α_k C_D·Re times this */
 	private readonly classDragScale: Float64Array;
+	/** ρ_l d/μ_l of each class: Re = |u_r| times this */
+	private readonly reScale: Float64Array;
+	/** spherical-cap classes: K = α_k |u_r| times this, (8/3)·Re/|u_r|·classDragScale */
+	private readonly capScale: Float64Array;
 	private readonly outsideGasDensity: number;
 	readonly diag: StepDiagnostics = { gasInKgM2S: 0, gasOutKgM2S: 0, liquidInMS: 0, liquidOutMS: 0 };
 	/** max |Δα_l|/Δt of the last step, 1/s */
@@ -182,21 +203,33 @@ export class HeightModel {
 		this.classU0 = [];
 		this.classD = [];
 		this.classW = [];
+		// several classes: shares, velocities and face coefficients of all classes in one array each, class k's
+		// values at offset k n (cells) or k (n + 1) (faces); the per-class arrays are views into them
+		this.flatShare = new Float64Array(nc > 1 ? nc * n : 0);
+		this.flatVelocity = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
+		this.flatU0 = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
+		this.flatD = new Float64Array(nc > 1 ? nc * (n + 1) : 0);
 		for (let k = 0; k < nc; k++) {
-			const share = new Float64Array(n);
+			const share = nc === 1 ? new Float64Array(n) : this.flatShare.subarray(k * n, (k + 1) * n);
 			share.fill(nc === 1 || k === 0 ? 1 : 0);
 			this.classShare.push(share);
-			this.classVelocity.push(nc === 1 ? this.gasVelocity : new Float64Array(n + 1));
+			const faces = (a: Float64Array) => a.subarray(k * (n + 1), (k + 1) * (n + 1));
+			this.classVelocity.push(nc === 1 ? this.gasVelocity : faces(this.flatVelocity));
 			this.classFlux.push(nc === 1 ? this.gasFlux : new Float64Array(n + 1));
-			this.classU0.push(nc === 1 ? this.ug0 : new Float64Array(n + 1));
-			this.classD.push(nc === 1 ? this.dg : new Float64Array(n + 1));
+			this.classU0.push(nc === 1 ? this.ug0 : faces(this.flatU0));
+			this.classD.push(nc === 1 ? this.dg : faces(this.flatD));
 			this.classW.push(nc === 1 ? this.wg : new Float64Array(n + 1));
 		}
 		this.classMass = new Float64Array(nc * n);
-		this.kA = new Float64Array(nc);
+		this.gasE = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.gasF = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.liqE = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.liqF = new Float64Array(nc > 1 ? n + 1 : 0);
+		this.gradOld = new Float64Array(nc > 1 ? n + 1 : 0);
 		this.kB = new Float64Array(nc);
 		this.kR = new Float64Array(nc);
 		this.kAg = new Float64Array(nc);
+		this.kInv = new Float64Array(nc);
 		this.psi = gasCompressibility(cfg);
 		this.outsideGasDensity = cfg.gasDensityKgM3 ?? this.psi * cfg.top.pressurePa;
 		const rhoRef = cfg.gasDensityKgM3 ?? cfg.referenceGasDensityKgM3;
@@ -211,12 +244,14 @@ export class HeightModel {
 		this.classEotvos = new Float64Array(nc);
 		this.classLaw = new Int32Array(nc);
 		this.classSwarmPow = new Float64Array(nc);
-		this.classDiameter = new Float64Array(nc);
 		this.classDragScale = new Float64Array(nc);
+		this.reScale = new Float64Array(nc);
+		this.capScale = new Float64Array(nc);
 		for (let k = 0; k < nc; k++) {
 			const c = this.classes[k];
-			this.classDiameter[k] = c.diameterM;
 			this.classDragScale[k] = (0.75 * cfg.liquidViscosityPaS * c.dragFactor) / (c.diameterM * c.diameterM);
+			this.reScale[k] = (cfg.liquidDensityKgM3 * c.diameterM) / cfg.liquidViscosityPaS;
+			this.capScale[k] = (8 / 3) * this.reScale[k] * this.classDragScale[k];
 			const gAbs = Math.abs(cfg.gravityAxialMS2);
 			this.classEotvos[k] = eotvosNumber({ diameterM: c.diameterM, liquidDensityKgM3: cfg.liquidDensityKgM3, gasDensityKgM3: rhoRef, surfaceTensionNM: cfg.surfaceTensionNM, gravityMS2: gAbs });
 			this.classLaw[k] = c.drag === 'spherical-cap' ? SPHERICAL_CAP_CODE : DRAG_LAW_CODES[c.drag];
@@ -307,19 +342,33 @@ export class HeightModel {
 	mixGasVelocity(): void {
 		const { n, nc } = this;
 		const lf = this.liquidFraction;
-		for (let j = 0; j <= n; j++) {
-			const lo = j > 0 ? j - 1 : 0;
-			const hi = j < n ? j : n - 1;
-			let sw = 0;
-			let su = 0;
-			for (let k = 0; k < nc; k++) {
-				const y = this.classShare[k];
-				const a = (1 - lf[lo]) * y[lo] + (1 - lf[hi]) * y[hi] + 1e-30;
-				sw += a;
-				su += a * this.classVelocity[k][j];
+		// class by class over the faces (sums in class order); weights in `gasE`, weighted sums in `gasF`
+		const sw = this.gasE;
+		const su = this.gasF;
+		for (let k = 0; k < nc; k++) {
+			const y = this.classShare[k];
+			const uk = this.classVelocity[k];
+			const first = k === 0;
+			// negative round-off holdups weigh nothing: two of opposite sign once cancelled to 0/0
+			let gLo = (1 - lf[0]) * y[0];
+			let a = gLo + gLo;
+			let aw = (a > 0 ? a : 0) + 1e-30;
+			sw[0] = first ? aw : sw[0] + aw;
+			su[0] = first ? aw * uk[0] : su[0] + aw * uk[0];
+			for (let j = 1; j < n; j++) {
+				const gHi = (1 - lf[j]) * y[j];
+				a = gLo + gHi;
+				aw = (a > 0 ? a : 0) + 1e-30;
+				sw[j] = first ? aw : sw[j] + aw;
+				su[j] = first ? aw * uk[j] : su[j] + aw * uk[j];
+				gLo = gHi;
 			}
-			this.gasVelocity[j] = su / sw;
+			a = gLo + gLo;
+			aw = (a > 0 ? a : 0) + 1e-30;
+			sw[n] = first ? aw : sw[n] + aw;
+			su[n] = first ? aw * uk[n] : su[n] + aw * uk[n];
 		}
+		for (let j = 0; j <= n; j++) this.gasVelocity[j] = su[j] / sw[j];
 	}
 
 	/** Time step from the material Courant number, counting only phases present in a cell (positivity form). */
@@ -328,7 +377,8 @@ export class HeightModel {
 		const ul = this.liquidVelocity;
 		const lf = this.liquidFraction;
 		let speed = 0;
-		for (let i = 0; i < n; i++) {
+		if (this.nc > 1) speed = this.classSpeed();
+		else for (let i = 0; i < n; i++) {
 			for (let k = 0; k < this.nc; k++) {
 				const ug = this.classVelocity[k];
 				if ((1 - lf[i]) * this.classShare[k][i] > CFL_PRESENCE) {
@@ -354,6 +404,46 @@ export class HeightModel {
 		const left = cfg.endTimeS - this.timeS;
 		if (dt >= left * (1 - 1e-9)) dt = left;
 		return dt;
+	}
+
+	/**
+	 * `chooseTimeStep`'s largest outflow speed with several classes, class by class over the cells. The limiting
+	 * cell is the one the cell-by-cell loop would name: the first, in cell order (classes, then the liquid), to
+	 * reach the largest speed.
+	 */
+	private classSpeed(): number {
+		const { n, nc } = this;
+		const ul = this.liquidVelocity;
+		const lf = this.liquidFraction;
+		let speed = 0;
+		let key = 0;
+		let limit = this.limitingCell;
+		for (let k = 0; k < nc; k++) {
+			const ug = this.classVelocity[k];
+			const y = this.classShare[k];
+			for (let i = 0; i < n; i++) {
+				if ((1 - lf[i]) * y[i] > CFL_PRESENCE) {
+					const s = (ug[i + 1] > 0 ? ug[i + 1] : 0) - (ug[i] < 0 ? ug[i] : 0);
+					if (s > speed || (s === speed && s > 0 && i * (nc + 1) + k < key)) {
+						speed = s;
+						key = i * (nc + 1) + k;
+						limit = i;
+					}
+				}
+			}
+		}
+		for (let i = 0; i < n; i++) {
+			if (lf[i] > CFL_PRESENCE) {
+				const s = (ul[i + 1] > 0 ? ul[i + 1] : 0) - (ul[i] < 0 ? ul[i] : 0);
+				if (s > speed || (s === speed && s > 0 && i * (nc + 1) + nc < key)) {
+					speed = s;
+					key = i * (nc + 1) + nc;
+					limit = -1 - i;
+				}
+			}
+		}
+		this.limitingCell = limit;
+		return speed;
 	}
 
 	/** Face value of a cell field for the donor flux, with the optional TVD limiter. */
@@ -411,14 +501,20 @@ export class HeightModel {
 
 		// 1. face momentum: new velocity = u0 − D·(pressure difference)/h
 		const nc = this.nc;
-		for (let j = 0; j <= n; j++) {
-			solved[j] = 0;
-			ul0[j] = 0;
-			dl[j] = 0;
+		if (nc > 1) {
+			// `classFaceMomentum` sets every face it solves: only the two ends start from zero
+			solved[0] = solved[n] = 0;
+			ul0[0] = ul0[n] = dl[0] = dl[n] = 0;
 			for (let k = 0; k < nc; k++) {
-				this.classU0[k][j] = 0;
-				this.classD[k][j] = 0;
+				this.classU0[k][0] = this.classU0[k][n] = 0;
+				this.classD[k][0] = this.classD[k][n] = 0;
 			}
+		} else {
+			solved.fill(0);
+			ul0.fill(0);
+			dl.fill(0);
+			this.classU0[0].fill(0);
+			this.classD[0].fill(0);
 		}
 		const top = cfg.top;
 		const jMax = top.kind === 'pressure' ? n : n - 1;
@@ -517,16 +613,24 @@ export class HeightModel {
 		}
 
 		// 2. donor weights from the old-time velocity direction (PHYSICS §18: a predicted direction can block the level face)
+		const donorCell = cfg.scheme === 'donor-cell';
+		// several classes with donor-cell weights: those are taken in the face sums of the pressure step below
+		const weighClasses = nc === 1 || !donorCell;
 		for (let j = 1; j < n; j++) {
 			const cl = ul[j] * courantScale;
-			for (let k = 0; k < nc; k++) {
+			if (weighClasses) for (let k = 0; k < nc; k++) {
 				// each class is carried by its own velocity; its weight is the donor's gas times the class's share of it
 				const uk = this.classVelocity[k];
 				const w = this.classW[k];
 				const y = this.classShare[k];
-				const cg = uk[j] * courantScale;
-				const dn = uk[j] >= 0 ? j - 1 : j;
-				const base = uk[j] >= 0 ? this.faceValue(lf, j - 1, j, j - 2, cg, false) * rg[dn] : this.faceValue(lf, j, j - 1, j + 1, -cg, false) * rg[dn];
+				const ukj = uk[j];
+				const dn = ukj >= 0 ? j - 1 : j;
+				// donor-cell: the donor's gas fraction itself (what `faceValue` returns for that scheme)
+				const base = donorCell
+					? (1 - lf[dn]) * rg[dn]
+					: ukj >= 0
+						? this.faceValue(lf, j - 1, j, j - 2, ukj * courantScale, false) * rg[dn]
+						: this.faceValue(lf, j, j - 1, j + 1, -(ukj * courantScale), false) * rg[dn];
 				w[j] = nc === 1 ? base : base * y[dn];
 			}
 			// liquid whose upwind cell is (nearly) empty while the other side is (nearly) full takes the other side
@@ -571,6 +675,42 @@ export class HeightModel {
 			hf[n] = dz;
 		}
 
+		// several classes: their gas mass flux coefficients summed once per face, E_j = Σ_k w_k D_k and
+		// F_j = Σ_k w_k (u0_k − D_k Δp_j/h_j), shared by the two cells of the face
+		const gasE = this.gasE;
+		const gasF = this.gasF;
+		const liqE = this.liqE;
+		const liqF = this.liqF;
+		const gradOld = this.gradOld;
+		if (nc > 1) {
+			for (let j = 0; j <= n; j++) {
+				const q = dpOld[j] / hf[j];
+				gradOld[j] = q;
+				liqE[j] = wl[j] * dl[j];
+				liqF[j] = wl[j] * (ul0[j] - dl[j] * q);
+				gasE[j] = 0;
+				gasF[j] = 0;
+			}
+			for (let k = 0; k < nc; k++) {
+				const w = this.classW[k];
+				const d0 = this.classD[k];
+				const u0 = this.classU0[k];
+				if (!weighClasses) {
+					// donor-cell: the donor's gas times the class's share of it
+					const uk = this.classVelocity[k];
+					const y = this.classShare[k];
+					for (let j = 1; j < n; j++) {
+						const dn = uk[j] >= 0 ? j - 1 : j;
+						w[j] = (1 - lf[dn]) * rg[dn] * y[dn];
+					}
+				}
+				for (let j = 0; j <= n; j++) {
+					gasE[j] += w[j] * d0[j];
+					gasF[j] += w[j] * (u0[j] - d0[j] * gradOld[j]);
+				}
+			}
+		}
+
 		// 3. pressure: α ψ Δz/(ρ_g Δt) δp_i + Σ_faces (gas volume flux + liquid volume flux) = 0
 		const lo = this.triLo;
 		const di = this.triDi;
@@ -591,23 +731,10 @@ export class HeightModel {
 				fBot = wg[jb] * (ug0[jb] - (dg[jb] * dpOld[jb]) / hf[jb]) * inv + wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
 			} else {
 				// the gas volume flux of every class through each face
-				let et = wl[jt] * dl[jt];
-				let eb = wl[jb] * dl[jb];
-				let ft = wl[jt] * (ul0[jt] - (dl[jt] * dpOld[jt]) / hf[jt]);
-				let fb = wl[jb] * (ul0[jb] - (dl[jb] * dpOld[jb]) / hf[jb]);
-				for (let k = 0; k < nc; k++) {
-					const w = this.classW[k];
-					const d0 = this.classD[k];
-					const u0 = this.classU0[k];
-					et += w[jt] * d0[jt] * inv;
-					eb += w[jb] * d0[jb] * inv;
-					ft += w[jt] * (u0[jt] - (d0[jt] * dpOld[jt]) / hf[jt]) * inv;
-					fb += w[jb] * (u0[jb] - (d0[jb] * dpOld[jb]) / hf[jb]) * inv;
-				}
-				eTop = et / hf[jt];
-				eBot = eb / hf[jb];
-				fTop = ft;
-				fBot = fb;
+				eTop = (liqE[jt] + gasE[jt] * inv) / hf[jt];
+				eBot = (liqE[jb] + gasE[jb] * inv) / hf[jb];
+				fTop = liqF[jt] + gasF[jt] * inv;
+				fBot = liqF[jb] + gasF[jb] * inv;
 			}
 			const ci = rg[i] > 0 ? ((1 - lf[i]) * psi * dz) / (rg[i] * dt) : 0;
 			di[i] = ci + eTop + eBot;
@@ -639,10 +766,12 @@ export class HeightModel {
 		for (let i = 0; i < n; i++) p[i] += x[i];
 		const gf = this.gasFlux;
 		const lfx = this.liquidFlux;
+		// several classes: the face's pressure gradient kept (in gasE, no longer needed) for the class loops below
+		const gradF = gasE;
 		for (let j = 1; j <= n; j++) {
 			if (!solved[j]) {
 				gf[j] = 0;
-				if (nc > 1) for (let k = 0; k < nc; k++) this.classFlux[k][j] = 0;
+				if (nc > 1) gradF[j] = 0;
 				lfx[j] = wl[j] * ul0[j];
 				continue;
 			}
@@ -654,15 +783,42 @@ export class HeightModel {
 				ug[j] = ug0[j] - dg[j] * grad;
 				gf[j] = wg[j] * ug[j];
 			} else {
-				let sum = 0;
-				for (let k = 0; k < nc; k++) {
-					const uk = this.classVelocity[k];
-					uk[j] = this.classU0[k][j] - this.classD[k][j] * grad;
-					const fk = this.classW[k][j] * uk[j];
-					this.classFlux[k][j] = fk;
-					sum += fk;
+				gradF[j] = grad;
+				gf[j] = 0;
+			}
+		}
+		const r = dt / dz;
+		if (nc > 1) {
+			// class velocities and fluxes, and with them each class's gas mass after the step (`updateClassShares`):
+			// the cell's gas (old) in `liqE`, the sum of its class masses in `liqF`, both free by now
+			const gas = liqE;
+			const sum = liqF;
+			for (let i = 0; i < n; i++) gas[i] = (1 - lf[i]) * rg[i];
+			const m = this.classMass;
+			for (let k = 0; k < nc; k++) {
+				const uk = this.classVelocity[k];
+				const u0 = this.classU0[k];
+				const d0 = this.classD[k];
+				const w = this.classW[k];
+				const fl = this.classFlux[k];
+				const y = this.classShare[k];
+				const o = k * n;
+				fl[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S * this.classes[k].inflowShare : 0;
+				for (let j = 1; j <= n; j++) {
+					let fk = 0;
+					if (solved[j]) {
+						const u = u0[j] - d0[j] * gradF[j];
+						uk[j] = u;
+						fk = w[j] * u;
+						gf[j] += fk;
+					}
+					fl[j] = fk;
+					const i = j - 1;
+					let v = gas[i] * y[i] - r * (fk - fl[i]);
+					if (v < 0) v = 0;
+					m[o + i] = v;
+					sum[i] = k === 0 ? v : sum[i] + v;
 				}
-				gf[j] = sum;
 			}
 		}
 		if (top.kind === 'pressure' && top.liquid === 'feed') {
@@ -670,11 +826,7 @@ export class HeightModel {
 		}
 		gf[0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S : 0;
 		lfx[0] = bottom.kind === 'inflow' ? bottom.liquidVolumeFluxMS : 0;
-		const r = dt / dz;
-		if (nc > 1) {
-			for (let k = 0; k < nc; k++) this.classFlux[k][0] = bottom.kind === 'inflow' ? bottom.gasMassFluxKgM2S * this.classes[k].inflowShare : 0;
-			this.updateClassShares(r);
-		}
+		if (nc > 1) this.updateClassShares(liqF);
 
 		// 5. liquid fraction, conservative; over-drained cells repaired from the neighbour that took the liquid
 		const old = this.lfOld;
@@ -714,7 +866,14 @@ export class HeightModel {
 	 * The terms are those of the one-class loop in `advance`, per class, with the class holdup α_k = α y_k.
 	 */
 	private classFaceMomentum(dt: number, jMax: number): void {
-		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kA, kB, kR, kAg } = this;
+		const { cfg, n, dz, nc, ul0, dl, hf, dpOld, solved, kB, kR, kAg, kInv } = this;
+		const Y = this.flatShare;
+		const V = this.flatVelocity;
+		const U0 = this.flatU0;
+		const D = this.flatD;
+		const nf = n + 1;
+		const { classLaw, classEotvos, classDragScale, classSwarmPow, reScale, capScale } = this;
+		const invDz = 1 / dz;
 		const lf = this.liquidFraction;
 		const p = this.pressure;
 		const rg = this.gasDensity;
@@ -732,6 +891,9 @@ export class HeightModel {
 		const courantScale = dt / dz;
 		const top = cfg.top;
 		const dragOn = this.lawIndex >= 0;
+		// droplet Reynolds number per ρ_g |u_r| and droplet drag per α_l C_D·Re
+		const redPerRhoG = dd / mug;
+		const kdPerAlq = (0.75 * mug) / (dd * dd);
 		for (let j = 1; j <= jMax; j++) {
 			const below = j - 1;
 			const isTop = j === n;
@@ -758,116 +920,125 @@ export class HeightModel {
 				cvm = (0.5 * (1 + 2 * ac)) / (1 - ac);
 			}
 			const lam = frictionOn ? blasiusFrictionCoefficient(lff, rl, mul, ulj, cfg.diameterM) : 0;
+			// Fine grids, two classes (the 5000-cell failure): the interfacial pressure is a force
+			// C_p ρ_l u_r² (α_k/α) ∂α/∂z, quadratic in the slip like the drag, and at a dilute bubble front the
+			// relative gradient ∂ln α/∂z of the donor-cell profile grows as 1/Δz. Once C_p |∂ln α/∂z| exceeds the
+			// drag's (3/4) C_D/d (a holdup varying over less than a bubble size, outside the averaged model) the
+			// net coupling is an anti-drag and the slip has no equilibrium: du_r/dt ∝ u_r² runs away within a few
+			// hundred steps whatever the time step (large bubbles at 20-30 m/s at the front of the first gas at
+			// 0.4 mm cells; cap bubbles with the Davies-Taylor factor have a quarter of the small bubbles' drag per
+			// u_r², so they cross first). So per class the interfacial pressure may cancel the drag, never reverse
+			// it: the coupling is max(K + K_ip, 0), implicit. Where the face holds no gas (mean fraction at the
+			// floor) the gradient is round-off of holdups near zero divided by the floor and is dropped; negative
+			// round-off holdups count as zero.
+			// Each class takes its share of the gradient of the whole gas fraction: the gradient of a trace class's
+			// own fraction, against the fast slip of drops in the freeboard, would be a spurious force per unit mass.
+			const gb = 1 - lf[below];
+			const ga = 1 - lf[j];
+			const dadzGas = isTop || af <= PRESENT_EPS ? 0 : ((ga > 0 ? ga : 0) - (gb > 0 ? gb : 0)) * invDz;
+			const ipScale = cp * rl * dadzGas;
+			// face factors shared by the classes: the class's share of the face gas α_k/α times these
+			const invAg = 1 / ag;
+			const vScale = cvm * ((1 - w) * rl + w * alq * rgf * invAg);
+			const redScale = rgf * redPerRhoG;
+			const kdScale = alq * kdPerAlq;
+			const lockScale = w > 0 ? CLASS_LOCK * w : 0;
+			const ugMean = this.gasVelocity[j];
 			let sumV = 0;
 			let sumVug = 0;
-			let slExtra = 0;
+			// the liquid equation's elimination of the classes, Σ_k q_k (m_k + lock_k), Σ_k q_k r_k, Σ_k q_k α_k with
+			// q_k = b_k/a_k, gathered in the same pass
+			const ml = alq * rl;
+			let sMat = ml + lam * dt;
+			let numK = 0;
+			let dnum = alq;
 			for (let k = 0; k < nc; k++) {
-				const y = this.classShare[k];
-				const uk = this.classVelocity[k];
-				const ab = (1 - lf[below]) * y[below];
-				const aa = isTop ? ab : (1 - lf[j]) * y[j];
+				const yo = k * n;
+				const vo = k * nf + j;
+				const ab = gb * Y[yo + below];
+				const aa = isTop ? ab : ga * Y[yo + j];
 				const akf = isTop ? ab : 0.5 * (ab + aa);
 				const agk = akf > PRESENT_EPS ? akf : PRESENT_EPS;
-				const ugj = uk[j];
+				const ratio = agk * invAg;
+				const ugj = V[vo];
 				const ur = ugj - ulj;
 				const aur = ur < 0 ? -ur : ur;
-				const dnG = ugj >= 0 ? below : isTop ? below : j;
-				up = ugj >= 0 ? uk[j - 1] : j < n ? uk[j + 1] : ugj;
-				const shareG = ((1 - lf[dnG]) * y[dnG]) / agk;
-				nu = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
-				const ugs = ugj - (nu < 1 ? nu : 1) * (ugj - up);
+				const upG = ugj >= 0 ? V[vo - 1] : j < n ? V[vo + 1] : ugj;
+				const shareG = (ugj >= 0 || isTop ? ab : aa) / agk;
+				const nuG = (ugj < 0 ? -ugj : ugj) * courantScale * (shareG < 1 ? shareG : 1);
+				const ugs = ugj - (nuG < 1 ? nuG : 1) * (ugj - upG);
 				let kk = 0;
 				if (dragOn) {
-					const d = this.classDiameter[k];
-					const law = this.classLaw[k];
-					const re = (rl * aur * d) / mul;
-					const cdRe = law === SPHERICAL_CAP_CODE ? (8 / 3) * re : dragCdRe(law, re, this.classEotvos[k], af);
-					let kb = agk * cdRe * this.classDragScale[k];
-					const sp = this.classSwarmPow[k];
+					const law = classLaw[k];
+					let kb = law === SPHERICAL_CAP_CODE ? agk * aur * capScale[k] : agk * dragCdRe(law, aur * reScale[k], classEotvos[k], af) * classDragScale[k];
+					const sp = classSwarmPow[k];
 					if (sp !== 0) kb *= Math.exp(sp * Math.log(alq > 1e-6 ? alq : 1e-6));
 					kk = kb;
 					if (w > 0) {
 						// above the level the gas is continuous: the droplet drag, shared among the classes by their holdup
-						const red = (rgf * aur * dd) / mug;
+						const red = redScale * aur;
 						const cdRed = red <= 1000 ? 24 * (1 + 0.15 * (red > 0 ? Math.exp(0.687 * Math.log(red)) : 0)) : 0.44 * red;
-						const kd = ((0.75 * alq * mug * cdRed) / (dd * dd)) * (agk / ag);
-						kk = (1 - w) * kb + w * kd;
+						kk = (1 - w) * kb + w * (kdScale * cdRed * ratio);
 					}
 				}
-				const v = cvm * ((1 - w) * agk * rl + w * alq * rgf * (agk / ag));
-				// the class's share of the gradient of the whole gas fraction: the gradient of a trace class's own
-				// fraction, against the fast slip of drops in the freeboard, would be a spurious force per unit mass
-				const dadz = isTop ? 0 : ((lf[below] - lf[j]) / dz) * (agk / ag);
-				const dpi = cp * rl * ur * ur;
-				const kip = cp * rl * ur * dadz;
-				const implicitIp = kk + kip > 0;
+				const v = vScale * agk;
+				const kipRaw = ipScale * ur * ratio;
+				const kip = kk + kipRaw > 0 ? kipRaw : -kk;
 				const mg = agk * rgf;
-				const cdt = (implicitIp ? kk + kip : kk) * dt;
-				const sg = agk * rgf * g - (implicitIp ? 0 : dpi * dadz);
-				if (!implicitIp) slExtra += dpi * dadz;
-				const b = v + cdt;
-				const lock = w > 0 ? CLASS_LOCK * w * mg : 0;
-				kA[k] = mg + b + lock;
+				const b = v + (kk + kip) * dt;
+				const lock = lockScale * mg;
+				const inv = 1 / (mg + b + lock);
+				const r = (mg + v) * ugs - v * uls + dt * mg * g + lock * ugMean;
+				const q = b * inv;
+				kInv[k] = inv;
 				kB[k] = b;
-				kR[k] = (mg + v) * ugs - v * uls + dt * sg + lock * this.gasVelocity[j];
+				kR[k] = r;
 				kAg[k] = agk;
+				sMat += q * (mg + lock);
+				numK += q * r;
+				dnum += q * agk;
 				sumV += v;
 				sumVug += v * ugs;
 			}
-			const ml = alq * rl;
-			const rlRhs = (ml + sumV) * uls - sumVug + dt * (alq * rl * g + slExtra);
+			const rlRhs = (ml + sumV) * uls - sumVug + dt * alq * rl * g;
 			hf[j] = isTop ? 0.5 * dz : dz;
 			dpOld[j] = isTop ? top.pressurePa - p[below] : p[j] - p[below];
 			solved[j] = 1;
 			if (isTop && top.kind === 'pressure' && top.liquid !== 'open') {
 				for (let k = 0; k < nc; k++) {
-					this.classU0[k][j] = kR[k] / kA[k];
-					this.classD[k][j] = (dt * kAg[k]) / kA[k];
+					U0[k * nf + j] = kR[k] * kInv[k];
+					D[k * nf + j] = dt * kAg[k] * kInv[k];
 				}
 				ul0[j] = 0;
 				dl[j] = 0;
 				continue;
 			}
-			let sMat = ml + lam * dt;
-			let num = rlRhs;
-			let dnum = alq;
-			for (let k = 0; k < nc; k++) {
-				const q = kB[k] / kA[k];
-				sMat += q * (kA[k] - kB[k]);
-				num += q * kR[k];
-				dnum += q * kAg[k];
-			}
-			const u0 = num / sMat;
-			const d0 = (dt * dnum) / sMat;
+			const num = rlRhs + numK;
+			const invS = 1 / sMat;
+			const u0 = num * invS;
+			const d0 = dt * dnum * invS;
 			ul0[j] = u0;
 			dl[j] = d0;
 			for (let k = 0; k < nc; k++) {
-				this.classU0[k][j] = (kR[k] + kB[k] * u0) / kA[k];
-				this.classD[k][j] = (dt * kAg[k] + kB[k] * d0) / kA[k];
+				U0[k * nf + j] = (kR[k] + kB[k] * u0) * kInv[k];
+				D[k * nf + j] = (dt * kAg[k] + kB[k] * d0) * kInv[k];
 			}
 		}
 	}
 
 	/**
-	 * Class shares after the step: each class's gas mass is carried by its own flux (conservative, donor-cell);
-	 * the cell's gas is then divided among the classes in proportion to those masses.
+	 * Class shares after the step: each class's gas mass is carried by its own flux (conservative, donor-cell; the
+	 * masses `classMass` and their sum per cell are formed with the fluxes in `advance`); the cell's gas is then
+	 * divided among the classes in proportion to those masses.
 	 */
-	private updateClassShares(dtOverDz: number): void {
+	private updateClassShares(sum: Float64Array): void {
 		const { n, nc } = this;
-		const lf = this.liquidFraction;
-		const rg = this.gasDensity;
 		const m = this.classMass;
-		for (let i = 0; i < n; i++) {
-			let sum = 0;
-			const gas = (1 - lf[i]) * rg[i];
-			for (let k = 0; k < nc; k++) {
-				const f = this.classFlux[k];
-				let v = gas * this.classShare[k][i] - dtOverDz * (f[i + 1] - f[i]);
-				if (v < 0) v = 0;
-				m[k * n + i] = v;
-				sum += v;
-			}
-			if (sum > 1e-300) for (let k = 0; k < nc; k++) this.classShare[k][i] = m[k * n + i] / sum;
+		for (let i = 0; i < n; i++) sum[i] = sum[i] > 1e-300 ? 1 / sum[i] : 0;
+		for (let k = 0; k < nc; k++) {
+			const y = this.classShare[k];
+			const o = k * n;
+			for (let i = 0; i < n; i++) if (sum[i] > 0) y[i] = m[o + i] * sum[i];
 		}
 	}
 
@@ -942,8 +1113,20 @@ export class HeightModel {
 			if (a < -1e-9 || a > 1 + 1e-9) return `holdup ${a.toPrecision(6)} is outside [0, 1] in ${where(i)}`;
 			return `pressure ${pi.toPrecision(6)} Pa is not positive in ${where(i)}`;
 		}
+		// several classes: one pass over each class's velocities first; the face loop names the first bad one
+		let classesBad = false;
+		for (let k = 1; k < this.nc && !classesBad; k++) {
+			const uk = this.classVelocity[k];
+			for (let j = 0; j <= n; j++) {
+				const u = uk[j];
+				if (!(u - u === 0)) {
+					classesBad = true;
+					break;
+				}
+			}
+		}
 		for (let j = 0; j <= n; j++) {
-			for (let k = 1; k < this.nc; k++) {
+			if (classesBad) for (let k = 1; k < this.nc; k++) {
 				if (!Number.isFinite(this.classVelocity[k][j])) return `velocity of the ${this.classes[k].label.toLowerCase()} is not a number at face ${j} (z = ${(j * this.dz).toFixed(3)} m) at t = ${this.timeS.toFixed(4)} s`;
 			}
 			if (!Number.isFinite(this.gasVelocity[j]) || !Number.isFinite(this.liquidVelocity[j])) {

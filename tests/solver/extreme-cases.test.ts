@@ -21,7 +21,7 @@ const R_J_MOL_K = 8.314462618;
 v8.setFlagsFromString('--expose-gc');
 const gc = runInNewContext('gc') as () => void;
 
-/** Safety net only: no case here comes near it (the finest grid needs about 6000 steps to its end time). */
+/** Safety net only: no case here comes near it (the finest grid needs a few hundred steps to its end time). */
 const STEP_GUARD = 50_000;
 /** Per case, on a two-core machine: the slowest case here takes a few seconds. */
 const WALL_LIMIT_S = 20;
@@ -41,17 +41,20 @@ function base(name: string): CaseDocument {
 	return c;
 }
 
-const extremes: { name: string; make: () => CaseDocument }[] = [
+const extremes: { name: string; make: () => CaseDocument; mustEndNormally?: boolean }[] = [
 	{
 		name: 'the finest grid: 5000 cells in the 2 m column',
 		make: () => {
 			const c = base('5000 cells');
 			c.numerics.cells = 5000;
-			// the CFL limit gives ~9 µs steps on 0.4 mm cells: 0.05 s is ~6000 steps
+			// 0.4 mm cells: 0.05 s is a few hundred steps
 			c.numerics.endTimeS = 0.05;
 			c.numerics.snapshotIntervalS = 0.05;
 			return c;
-		}
+		},
+		// the default two bubble classes: the large bubbles' interfacial pressure at the sharp front of the first
+		// gas once ran away here (NaN gas velocity at t ≈ 0.025 s); capped at the drag it must run to its end time
+		mustEndNormally: true
 	},
 	{
 		name: 'the tallest column: 50 m, 30 m of clear liquid',
@@ -142,6 +145,7 @@ describe('extreme but valid cases', () => {
 
 			const outcome = `${r.status} at step ${state.step}, t = ${r.timeS} s, ${wallS.toFixed(2)} s wall${r.message ? `: ${r.message}` : ''}`;
 			expect(ALLOWED, outcome).toContain(r.status);
+			if (x.mustEndNormally) expect(['converged', 'finished'], outcome).toContain(r.status);
 			expect(state.step, outcome).toBeLessThan(STEP_GUARD);
 			expect(wallS, outcome).toBeLessThan(WALL_LIMIT_S);
 			expect(Number.isFinite(r.timeS) && r.timeS > 0 && r.timeS <= doc.numerics.endTimeS * (1 + 1e-9), outcome).toBe(true);

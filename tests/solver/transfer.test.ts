@@ -428,11 +428,15 @@ describe('cases without transfer', () => {
 		expect(validateCase(radial)).toMatchObject({ ok: false, issues: [{ path: 'transfer.mode', message: 'Mass transfer is computed by the height-profile model only' }] });
 	});
 
-	it('continue checkpoints of 1.2.0, of 1.1.0 without transfer, of 1.0.0 with one class, and earlier cross-sections with one class', () => {
-		expect(canContinueCheckpoint('1.2.0', false, true)).toBe(true);
+	it('continue earlier checkpoints of one-class runs only, and with transfer only from 1.2.0', () => {
+		// 1.3.0 changed the several-class height profile (the interfacial pressure capped at the drag) and gave the
+		// cross-section classes; every one-class operation stayed as it was
+		expect(canContinueCheckpoint('1.2.0', true, true)).toBe(true);
+		expect(canContinueCheckpoint('1.2.0', false, true)).toBe(false);
+		expect(canContinueCheckpoint('1.2.0', false)).toBe(false);
 		expect(canContinueCheckpoint('1.2.0', true, false, 'cross-section')).toBe(true);
 		expect(canContinueCheckpoint('1.2.0', false, false, 'cross-section')).toBe(false);
-		expect(canContinueCheckpoint('1.1.0', false)).toBe(true);
+		expect(canContinueCheckpoint('1.1.0', false)).toBe(false);
 		expect(canContinueCheckpoint('1.1.0', true)).toBe(true);
 		expect(canContinueCheckpoint('1.0.0', true)).toBe(true);
 		expect(canContinueCheckpoint('1.0.0', false)).toBe(false);
