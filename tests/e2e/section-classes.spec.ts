@@ -2,7 +2,8 @@
  * Bubble classes across the section, in a real browser against the built app and a real worker: the analyst sets
  * up a churn-turbulent cross-section, the editor's Bubble classes section shows the transition and the division of
  * the gas, and the run page shows each class's holdup, which the lift's sign change puts at the wall (small) and in
- * the core (large). Screenshots go to artifacts/screenshots (git-ignored).
+ * the core (large). Screenshots go to artifacts/screenshots (git-ignored). Its name sorts after demo-work.spec.ts,
+ * which seeds the demo work only while the pilot column C-101 has no cases.
  */
 import { expect, test } from '@playwright/test';
 import { openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
