@@ -332,24 +332,30 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 		});
 	}
 
-	/** Sato's bubble-induced viscosity of all classes, Pa·s. */
-	function bubbleInducedViscosity(at: (k: ClassState) => { holdup: number; slip: number }): number {
-		if (cl.bubbleInducedTurbulence !== 'sato') return 0;
+	const sato = cl.bubbleInducedTurbulence === 'sato';
+
+	/**
+	 * Sato's bubble-induced viscosity of all classes, Pa·s, with each class's holdup and slip the mean of cells iL and
+	 * iR (a face between them, or a cell with iL = iR: ½(x + x) = x exactly).
+	 */
+	function bubbleInducedViscosity(iL: number, iR: number): number {
+		if (!sato) return 0;
 		let mu = 0;
-		for (const k of cls) {
-			const x = at(k);
-			mu += satoViscosityPaS({ liquidDensityKgM3: rl, holdup: x.holdup, diameterM: k.spec.diameterM, slipVelocityMS: x.slip });
+		for (let m = 0; m < nc; m++) {
+			const k = cls[m];
+			mu += satoViscosityPaS({ liquidDensityKgM3: rl, holdup: 0.5 * (k.alpha[iL] + k.alpha[iR]), diameterM: k.spec.diameterM, slipVelocityMS: 0.5 * (k.slip[iL] + k.slip[iR]) });
 		}
 		return mu;
 	}
 
-	/** Turbulent kinetic energy: the shear part and the pseudo-turbulence of every class. */
-	function kineticEnergy(muSI: number, du: number, at: (k: ClassState) => { holdup: number; slip: number }): number {
-		const x0 = at(cls[0]);
-		let kt = turbulentKineticEnergyM2S2({ shearEddyViscosityM2S: muSI / rl, shearRateS: du, holdup: x0.holdup, slipVelocityMS: x0.slip });
-		for (let m = 1; m < nc; m++) {
-			const x = at(cls[m]);
-			kt += turbulentKineticEnergyM2S2({ shearEddyViscosityM2S: 0, shearRateS: 0, holdup: x.holdup, slipVelocityMS: x.slip });
+	/** Turbulent kinetic energy: the shear part and the pseudo-turbulence of every class (holdup and slip as above). */
+	function kineticEnergy(muSI: number, du: number, iL: number, iR: number): number {
+		let kt = 0;
+		for (let m = 0; m < nc; m++) {
+			const k = cls[m];
+			const holdup = 0.5 * (k.alpha[iL] + k.alpha[iR]);
+			const slipVelocityMS = 0.5 * (k.slip[iL] + k.slip[iR]);
+			kt += m === 0 ? turbulentKineticEnergyM2S2({ shearEddyViscosityM2S: muSI / rl, shearRateS: du, holdup, slipVelocityMS }) : turbulentKineticEnergyM2S2({ shearEddyViscosityM2S: 0, shearRateS: 0, holdup, slipVelocityMS });
 		}
 		return kt;
 	}
@@ -378,11 +384,10 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 			const y = R - grid.facesM[j];
 			const l = nikuradseMixingLengthM({ radiusM: R, wallDistanceM: y });
 			const muSI = rl * l * l * Math.abs(du);
-			const atFace = (k: ClassState) => ({ holdup: 0.5 * (k.alpha[j - 1] + k.alpha[j]), slip: 0.5 * (k.slip[j - 1] + k.slip[j]) });
-			const muBI = bubbleInducedViscosity(atFace);
+			const muBI = bubbleInducedViscosity(j - 1, j);
 			faceMu[j] = mul + muSI + muBI;
 			faceWeight[j] = 1 - aF;
-			const kinetic = cl.turbulentDispersion === 'lopez-de-bertodano' ? kineticEnergy(muSI, du, atFace) : 0;
+			const kinetic = cl.turbulentDispersion === 'lopez-de-bertodano' ? kineticEnergy(muSI, du, j - 1, j) : 0;
 			for (const k of cls) {
 				const sF = 0.5 * (k.slip[j - 1] + k.slip[j]);
 				const kF = 0.5 * (k.dragSecant[j - 1] + k.dragSecant[j]);
@@ -605,10 +610,9 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 			const y = R - grid.centresM[i];
 			const l = nikuradseMixingLengthM({ radiusM: R, wallDistanceM: y });
 			const muSI = rl * l * l * Math.abs(du);
-			const atCell = (k: ClassState) => ({ holdup: k.alpha[i], slip: k.slip[i] });
-			const muBI = bubbleInducedViscosity(atCell);
+			const muBI = bubbleInducedViscosity(i, i);
 			out.effectiveViscosity[i] = mul + muSI + muBI;
-			const kinetic = kineticEnergy(muSI, du, atCell);
+			const kinetic = kineticEnergy(muSI, du, i, i);
 			cls.forEach((k, m) => {
 				const ak = k.alpha[i];
 				const s = k.slip[i];
