@@ -7,6 +7,7 @@ import { hyperbolicityLimitHoldup, virtualMassCoefficient } from './closures/vir
 import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
 import { regimeFromBand, regimeFromTransition } from './correlations/regime.js';
 import { planClasses } from './height/classes.js';
+import { reillyTransition } from './correlations/churn.js';
 import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
 import { bairdRiceLiquidDispersion, deckwerLiquidDispersion } from './correlations/axial-dispersion.js';
 import { saturationConcentrationKgM3, solutes } from './correlations/solubility.js';
@@ -182,6 +183,18 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 		warnings.push(
 			`The holdup and bubble-class descriptions are checked against correlations for low-viscosity liquids; at ${l.viscosityPaS.toPrecision(2)} Pa·s treat the results as outside their range`
 		);
+	}
+	if (c.bubbles.classes === 'single') {
+		const ugSp = massFlux / rhoSp;
+		const trans = reillyTransition({ gasDensityKgM3: rhoSp, liquidDensityKgM3: l.densityKgM3, surfaceTensionNM: l.surfaceTensionNM });
+		if (ugSp > trans.velocityMS) {
+			// one size of a few millimetres over-predicts holdup above the transition and fails in churn-turbulent flow
+			// (air–water, 0.3 m: 1.7–2.6 times Akita–Yoshida at 0.02–0.06 m/s and failing from 0.08 m/s with 4 mm bubbles;
+			// a 0.3 m section with 5 mm bubbles fails at 0.2 m/s, tests/e2e/section-classes.spec.ts)
+			warnings.push(
+				`One bubble size above the regime transition (${trans.velocityMS.toPrecision(2)} m/s, Reilly et al. 1994): in churn-turbulent flow large bubbles carry most of the gas, and one size of small bubbles over-predicts the holdup or fails; small + large bubbles is the description checked there`
+			);
+		}
 	}
 	if (c.kind === 'cross-section' && classes && massFlux / rhoSp > classes.transitionVelocityMS) {
 		const dCol = c.geometry.diameterM;

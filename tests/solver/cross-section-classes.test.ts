@@ -173,6 +173,18 @@ describe('cross-section model with small and large bubbles', () => {
 		expect(warned(0.15, 0.3)).toBe(true);
 		// below the transition there is only one class and nothing to warn of
 		expect(warned(1, 0.02)).toBe(false);
+		// one bubble size above the transition (Reilly et al. 1994: about 0.03 m/s for air–water) is warned of, in both
+		// models; the issue's own table: 4 mm bubbles 1.7–2.6 times Akita–Yoshida at 0.02–0.06 m/s, failing from 0.08
+		const single = (kind: 'cross-section' | 'height-profile', u: number) => {
+			const c = kind === 'cross-section' ? classCase(0.3, u) : defaultCase('height-profile');
+			c.sparging.superficialGasVelocityMS = u;
+			c.bubbles.classes = 'single';
+			return derivedNumbers(c).warnings.some((w) => w.startsWith('One bubble size above the regime transition'));
+		};
+		expect(single('cross-section', 0.2)).toBe(true);
+		expect(single('height-profile', 0.1)).toBe(true);
+		expect(single('height-profile', 0.02)).toBe(false);
+		expect(derivedNumbers(classCase(0.3, 0.2)).warnings.some((w) => w.startsWith('One bubble size'))).toBe(false);
 		// 1 m at 0.4 m/s: the large bubbles gather on the axis until the holdup limit; the run fails within seconds
 		// of simulated time and says which class holds the gas (measured: large 0.70, small 0.10 at t ≈ 4.5 s)
 		const { sim } = runToSteady(classCase(1, 0.4));
