@@ -273,7 +273,9 @@ describe('expandStudy: closure matrix', () => {
 		const cross = familiesFor(defaultCase('cross-section'));
 		expect(cross).toEqual(expect.arrayContaining(['drag', 'swarm', 'lift', 'wallLubrication', 'turbulentDispersion']));
 		expect(cross).not.toContain('virtualMass');
-		expect(cross).not.toContain('largeDrag');
+		// the section's default small + large bubbles (schema version 3) have a large-bubble drag; one size has none
+		expect(cross).toContain('largeDrag');
+		expect(familiesFor({ kind: 'cross-section', bubbles: { ...defaultCase('cross-section').bubbles, classes: 'single' } })).not.toContain('largeDrag');
 		const height = familiesFor(base);
 		expect(height).toEqual(expect.arrayContaining(['drag', 'swarm', 'virtualMass', 'largeDrag']));
 		expect(height).not.toContain('lift');

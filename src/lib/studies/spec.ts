@@ -92,7 +92,7 @@ export const matrixFamilies = {
 	drag: { label: 'Drag law', path: ['closures', 'drag'], options: dragLaws, catalog: dragCatalog, kinds: ['height-profile', 'cross-section'] },
 	swarm: { label: 'Swarm correction', path: ['closures', 'swarm'], options: swarmCorrections, catalog: swarmCatalog, kinds: ['height-profile', 'cross-section'] },
 	virtualMass: { label: 'Virtual mass', path: ['closures', 'virtualMass'], options: virtualMassModels, catalog: virtualMassCatalog, kinds: ['height-profile'] },
-	largeDrag: { label: 'Large-bubble drag', path: ['bubbles', 'largeDrag'], options: largeBubbleDrags, catalog: largeBubbleDragCatalog, kinds: ['height-profile'] },
+	largeDrag: { label: 'Large-bubble drag', path: ['bubbles', 'largeDrag'], options: largeBubbleDrags, catalog: largeBubbleDragCatalog, kinds: ['height-profile', 'cross-section'] },
 	lift: { label: 'Lift', path: ['closures', 'lift'], options: liftModels, catalog: liftCatalog, kinds: ['cross-section'] },
 	wallLubrication: { label: 'Wall lubrication', path: ['closures', 'wallLubrication'], options: wallLubricationModels, catalog: wallLubricationCatalog, kinds: ['cross-section'] },
 	turbulentDispersion: { label: 'Turbulent dispersion', path: ['closures', 'turbulentDispersion'], options: turbulentDispersionModels, catalog: turbulentDispersionCatalog, kinds: ['cross-section'] }
