@@ -243,4 +243,71 @@ describe('the verification page', () => {
 		// the report never queues a verification itself
 		expect(await row(OLD)).toBeNull();
 	}, 60_000);
+	it('says on the printable report when a version’s verification failed, is being computed or waits for a worker', async () => {
+		const { pool } = handle;
+		const tag = `VST-${Date.now().toString(36)}`;
+		// versions no worker of this suite runs, with their rows in each unfinished state
+		const states = [
+			{ version: `failed-${tag}`, status: 'failed', progress: 0.4, error: 'the worker stopped: out of memory', finished: true },
+			{ version: `computing-${tag}`, status: 'computing', progress: 0.62, error: null, finished: false },
+			{ version: `queued-${tag}`, status: 'queued', progress: 0, error: null, finished: false }
+		];
+		for (const st of states) {
+			await pool.query(
+				`insert into verification_results (solver_version, status, progress, error_message, started_at, finished_at) values ($1, $2, $3, $4, now() - interval '1 minute', $5)`,
+				[st.version, st.status, st.progress, st.error, st.finished ? new Date('2026-11-30T10:15:00Z') : null]
+			);
+		}
+		const { rows: col } = await pool.query(`insert into columns (team_id, tag, service, diameter_m, height_m) values ($1, $2, 'verification states test', 0.2, 2) returning id`, [team.team.id, tag]);
+		const runIds: string[] = [];
+		for (const st of states) {
+			const doc = defaultCase();
+			doc.name = `case of ${st.version}`;
+			const { rows: c } = await pool.query(`insert into cases (team_id, column_id, name, kind, schema_version, document) values ($1, $2, $3, 'height-profile', $4, $5) returning id`, [
+				team.team.id,
+				col[0].id,
+				doc.name,
+				doc.schemaVersion,
+				JSON.stringify(doc)
+			]);
+			const summary = { kind: 'height-profile', status: 'converged', design: { overallHoldup: { value: 0.12, unit: '1', label: 'Overall gas holdup of the aerated region' } } };
+			const { rows: r } = await pool.query(
+				`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, $5, 'converged', $6) returning id`,
+				[team.team.id, col[0].id, c[0].id, JSON.stringify(doc), st.version, JSON.stringify(summary)]
+			);
+			runIds.push(r[0].id);
+		}
+		const { rows: cmp } = await pool.query(`insert into comparisons (team_id, column_id, name, run_ids, baseline_run_id) values ($1, $2, $3, $4, $5) returning id`, [
+			team.team.id,
+			col[0].id,
+			`States on ${tag}`,
+			JSON.stringify(runIds),
+			runIds[0]
+		]);
+		const res = await viewer.get(`/compare/${cmp[0].id}/report`);
+		expect(res.status).toBe(200);
+		const section = sectionOf(await res.text());
+
+		const failed = versionBlock(section, states[0].version);
+		expect(failed).toContain('data-status="failed"');
+		expect(failed).not.toContain('data-case=');
+		expect(textOf(failed)).toContain(`Could not be computed for solver ${states[0].version} (30 Nov 2026, 10:15 UTC): the worker stopped: out of memory — open the verification page`);
+		expect(textOf(failed)).toContain('to try again');
+
+		const computing = versionBlock(section, states[1].version);
+		expect(computing).toContain('data-status="computing"');
+		// (textOf turns the version's closing tag into a space before the colon)
+		expect(textOf(computing)).toMatch(new RegExp(`Not yet computed for solver ${states[1].version} ?: a worker is computing it \\(62 %\\) — open the verification page`));
+
+		const queued = versionBlock(section, states[2].version);
+		expect(queued).toContain('data-status="queued"');
+		expect(textOf(queued)).toMatch(new RegExp(`Not yet computed for solver ${states[2].version} ?: queued for a worker — open the verification page`));
+		for (const block of [failed, computing, queued]) expect(block).toContain('href="/verification"');
+
+		// reading the report changes none of the rows
+		for (const st of states) {
+			const r = (await row(st.version))!;
+			expect([r.status, r.progress, r.errorMessage]).toEqual([st.status, st.progress, st.error]);
+		}
+	}, 60_000);
 });
