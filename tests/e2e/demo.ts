@@ -29,3 +29,18 @@ export async function openNewCaseOfPilot(page: Page) {
 	await expect(page.getByTestId('case-editor')).toBeVisible();
 	await page.waitForLoadState('networkidle');
 }
+
+/**
+ * From a lead's signed-in page: Compare → the column → the runs, with the first of `runIds` as the baseline
+ * unless another is given, saved under `name`; waits for the comparison page.
+ */
+export async function compareRuns(lead: Page, o: { runIds: string[]; name: string; baselineRunId?: string; column?: string }) {
+	await lead.getByRole('link', { name: 'Compare', exact: true }).click();
+	await lead.getByTestId('compare-column').selectOption({ label: o.column ?? 'C-101' });
+	await lead.getByTestId('compare-start').click();
+	for (const id of o.runIds) await lead.locator(`input[name="runIds"][value="${id}"]`).check();
+	await lead.locator(`input[name="baselineRunId"][value="${o.baselineRunId ?? o.runIds[0]}"]`).check();
+	await lead.getByTestId('comparison-name').fill(o.name);
+	await lead.getByTestId('save-comparison').click();
+	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
+}

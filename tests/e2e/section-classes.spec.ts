@@ -6,7 +6,7 @@
  * which seeds the demo work only while the pilot column C-101 has no cases.
  */
 import { expect, test } from '@playwright/test';
-import { openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { compareRuns, openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
 
 test.describe.configure({ mode: 'serial', timeout: 240_000 });
 
@@ -108,14 +108,7 @@ test('one bubble size fails in churn-turbulent flow, and the lead compares the c
 	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
 	const lead = await leadContext.newPage();
 	await signIn(lead, LEAD);
-	await lead.getByRole('link', { name: 'Compare', exact: true }).click();
-	await lead.getByTestId('compare-column').selectOption({ label: 'C-101' });
-	await lead.getByTestId('compare-start').click();
-	for (const id of [classesRunId, noLiftRunId]) await lead.locator(`input[name="runIds"][value="${id}"]`).check();
-	await lead.locator(`input[name="baselineRunId"][value="${classesRunId}"]`).check();
-	await lead.getByTestId('comparison-name').fill('C-101 section: lift on the bubble classes');
-	await lead.getByTestId('save-comparison').click();
-	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
+	await compareRuns(lead, { runIds: [classesRunId, noLiftRunId], name: 'C-101 section: lift on the bubble classes' });
 	const differing = lead.getByTestId('closure-table').locator('tr[data-differs="true"]');
 	await expect(differing).toHaveCount(1);
 	await expect(differing).toContainText('Lift');

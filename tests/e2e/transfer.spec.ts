@@ -5,7 +5,7 @@
  * own series. Screenshots go to artifacts/screenshots (git-ignored).
  */
 import { expect, test } from '@playwright/test';
-import { openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { compareRuns, openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
 
 test.describe.configure({ mode: 'serial', timeout: 240_000 });
 
@@ -111,14 +111,7 @@ test('the lead compares the rigid and the mobile interface and sees the transfer
 	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
 	const lead = await leadContext.newPage();
 	await signIn(lead, LEAD);
-	await lead.getByRole('link', { name: 'Compare', exact: true }).click();
-	await lead.getByTestId('compare-column').selectOption({ label: 'C-101' });
-	await lead.getByTestId('compare-start').click();
-	for (const id of [firstRunId, secondRunId]) await lead.locator(`input[name="runIds"][value="${id}"]`).check();
-	await lead.locator(`input[name="baselineRunId"][value="${firstRunId}"]`).check();
-	await lead.getByTestId('comparison-name').fill('C-101 k_L model check');
-	await lead.getByTestId('save-comparison').click();
-	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
+	await compareRuns(lead, { runIds: [firstRunId, secondRunId], name: 'C-101 k_L model check' });
 
 	// the transfer choices are model choices like the closures: the one that differs is marked
 	const differing = lead.getByTestId('closure-table').locator('tr[data-differs="true"]');

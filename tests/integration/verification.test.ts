@@ -67,6 +67,44 @@ function versionBlock(section: string, version: string): string {
 	return part!;
 }
 
+/**
+ * A comparison of one converged run per solver version (a column, a case and a run each, written as the worker
+ * would leave them) and its printable report's verification section, read by the viewer.
+ */
+async function reportSectionOfVersions(versions: string[], what: string): Promise<string> {
+	const { pool } = handle;
+	const tag = `${what}-${Date.now().toString(36)}`;
+	const { rows: col } = await pool.query(`insert into columns (team_id, tag, service, diameter_m, height_m) values ($1, $2, $3, 0.2, 2) returning id`, [team.team.id, tag, `verification ${what} test`]);
+	const runIds: string[] = [];
+	for (const version of versions) {
+		const doc = defaultCase();
+		doc.name = `case of ${version}`;
+		const { rows: c } = await pool.query(`insert into cases (team_id, column_id, name, kind, schema_version, document) values ($1, $2, $3, 'height-profile', $4, $5) returning id`, [
+			team.team.id,
+			col[0].id,
+			doc.name,
+			doc.schemaVersion,
+			JSON.stringify(doc)
+		]);
+		const summary = { kind: 'height-profile', status: 'converged', design: { overallHoldup: { value: 0.12, unit: '1', label: 'Overall gas holdup of the aerated region' } } };
+		const { rows: r } = await pool.query(
+			`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, $5, 'converged', $6) returning id`,
+			[team.team.id, col[0].id, c[0].id, JSON.stringify(doc), version, JSON.stringify(summary)]
+		);
+		runIds.push(r[0].id);
+	}
+	const { rows: cmp } = await pool.query(`insert into comparisons (team_id, column_id, name, run_ids, baseline_run_id) values ($1, $2, $3, $4, $5) returning id`, [
+		team.team.id,
+		col[0].id,
+		`Versions on ${tag}`,
+		JSON.stringify(runIds),
+		runIds[0]
+	]);
+	const res = await viewer.get(`/compare/${cmp[0].id}/report`);
+	expect(res.status).toBe(200);
+	return sectionOf(await res.text());
+}
+
 /** Poll the status endpoint as the page does until the verification ends; the progress values seen. */
 async function untilEnded(client: TestClient, what: string): Promise<number[]> {
 	const seen: number[] = [];
@@ -177,37 +215,7 @@ describe('the verification page', () => {
 	}, 240_000);
 
 	it('shows the cached verification of the runs’ solver version on the printable report, and says plainly when a version has none', async () => {
-		const { pool } = handle;
-		const tag = `VER-${Date.now().toString(36)}`;
-		const { rows: col } = await pool.query(`insert into columns (team_id, tag, service, diameter_m, height_m) values ($1, $2, 'verification report test', 0.2, 2) returning id`, [team.team.id, tag]);
-		const runIds: string[] = [];
-		for (const version of [SOLVER_VERSION, OLD]) {
-			const doc = defaultCase();
-			doc.name = `case of ${version}`;
-			const { rows: c } = await pool.query(`insert into cases (team_id, column_id, name, kind, schema_version, document) values ($1, $2, $3, 'height-profile', 2, $4) returning id`, [
-				team.team.id,
-				col[0].id,
-				doc.name,
-				JSON.stringify(doc)
-			]);
-			const summary = { kind: 'height-profile', status: 'converged', design: { overallHoldup: { value: 0.12, unit: '1', label: 'Overall gas holdup of the aerated region' } } };
-			const { rows: r } = await pool.query(
-				`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, $5, 'converged', $6) returning id`,
-				[team.team.id, col[0].id, c[0].id, JSON.stringify(doc), version, JSON.stringify(summary)]
-			);
-			runIds.push(r[0].id);
-		}
-		const { rows: cmp } = await pool.query(`insert into comparisons (team_id, column_id, name, run_ids, baseline_run_id) values ($1, $2, $3, $4, $5) returning id`, [
-			team.team.id,
-			col[0].id,
-			`Versions on ${tag}`,
-			JSON.stringify(runIds),
-			runIds[0]
-		]);
-		const res = await viewer.get(`/compare/${cmp[0].id}/report`);
-		expect(res.status).toBe(200);
-		const html = await res.text();
-		const section = sectionOf(html);
+		const section = await reportSectionOfVersions([SOLVER_VERSION, OLD], 'VER');
 		expect(textOf(section)).toMatch(/^Verification of the solver /);
 		expect(section).toContain('href="/verification"');
 
@@ -258,35 +266,7 @@ describe('the verification page', () => {
 				[st.version, st.status, st.progress, st.error, st.finished ? new Date('2026-11-30T10:15:00Z') : null]
 			);
 		}
-		const { rows: col } = await pool.query(`insert into columns (team_id, tag, service, diameter_m, height_m) values ($1, $2, 'verification states test', 0.2, 2) returning id`, [team.team.id, tag]);
-		const runIds: string[] = [];
-		for (const st of states) {
-			const doc = defaultCase();
-			doc.name = `case of ${st.version}`;
-			const { rows: c } = await pool.query(`insert into cases (team_id, column_id, name, kind, schema_version, document) values ($1, $2, $3, 'height-profile', $4, $5) returning id`, [
-				team.team.id,
-				col[0].id,
-				doc.name,
-				doc.schemaVersion,
-				JSON.stringify(doc)
-			]);
-			const summary = { kind: 'height-profile', status: 'converged', design: { overallHoldup: { value: 0.12, unit: '1', label: 'Overall gas holdup of the aerated region' } } };
-			const { rows: r } = await pool.query(
-				`insert into runs (team_id, column_id, case_id, case_document, solver_version, status, summary) values ($1, $2, $3, $4, $5, 'converged', $6) returning id`,
-				[team.team.id, col[0].id, c[0].id, JSON.stringify(doc), st.version, JSON.stringify(summary)]
-			);
-			runIds.push(r[0].id);
-		}
-		const { rows: cmp } = await pool.query(`insert into comparisons (team_id, column_id, name, run_ids, baseline_run_id) values ($1, $2, $3, $4, $5) returning id`, [
-			team.team.id,
-			col[0].id,
-			`States on ${tag}`,
-			JSON.stringify(runIds),
-			runIds[0]
-		]);
-		const res = await viewer.get(`/compare/${cmp[0].id}/report`);
-		expect(res.status).toBe(200);
-		const section = sectionOf(await res.text());
+		const section = await reportSectionOfVersions(states.map((st) => st.version), 'VST');
 
 		const failed = versionBlock(section, states[0].version);
 		expect(failed).toContain('data-status="failed"');
