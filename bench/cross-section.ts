@@ -10,6 +10,7 @@ import { defaultCase } from '../solver/case.js';
 import { createCrossSectionSimulation, crossSectionParameters } from '../solver/cross-section/index.js';
 import { akitaYoshidaHoldup } from '../solver/correlations/holdup.js';
 import { hikitaHoldup } from '../solver/correlations/churn.js';
+import { riquartsCentrelineVelocityMS } from '../solver/correlations/circulation.js';
 
 export interface CrossSectionBenchFigures {
 	case: string;
@@ -79,7 +80,6 @@ export interface CirculationPoint {
 
 /** The default bubble classes (air–water at 20 °C, 60 cells) at 0.02–0.35 m/s in 0.3 m and 1 m columns. */
 export function circulationCurve(): CirculationPoint[] {
-	const g = 9.81;
 	const rl = 998.2;
 	const mul = 1.002e-3;
 	const rows: CirculationPoint[] = [];
@@ -92,7 +92,7 @@ export function circulationCurve(): CirculationPoint[] {
 			const sim = createCrossSectionSimulation(c);
 			while (sim.state.status === 'running' && sim.state.step < 200_000) sim.step();
 			const d = sim.results().design;
-			const riquartsMS = 0.21 * Math.sqrt(g * diameterM) * Math.pow(ugMS ** 3 / (g * (mul / rl)), 1 / 8);
+			const riquartsMS = riquartsCentrelineVelocityMS({ diameterM, superficialGasVelocityMS: ugMS, liquidKinematicViscosityM2S: mul / rl });
 			const col = { diameterM, superficialGasVelocityMS: ugMS, liquidDensityKgM3: rl, liquidViscosityPaS: mul, surfaceTensionNM: 0.0727 };
 			const correlationHoldup = (akitaYoshidaHoldup(col) + hikitaHoldup({ ...col, gasDensityKgM3: crossSectionParameters(c).gasDensityKgM3, gasViscosityPaS: 1.81e-5 })) / 2;
 			rows.push({

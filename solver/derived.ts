@@ -6,8 +6,7 @@ import { eotvosNumber, terminalVelocity } from './closures/drag.js';
 import { hyperbolicityLimitHoldup, virtualMassCoefficient } from './closures/virtual-mass.js';
 import { akitaYoshidaSauterDiameter } from './correlations/bubble-size.js';
 import { regimeFromBand, regimeFromTransition } from './correlations/regime.js';
-import { planClasses } from './height/classes.js';
-import { reillyTransition } from './correlations/churn.js';
+import { caseTransition, planClasses } from './height/classes.js';
 import { GRAVITY_MS2, idealGasDensity, NORMAL_PRESSURE_PA, NORMAL_TEMPERATURE_K } from './fluids.js';
 import { bairdRiceLiquidDispersion, deckwerLiquidDispersion } from './correlations/axial-dispersion.js';
 import { saturationConcentrationKgM3, solutes } from './correlations/solubility.js';
@@ -186,13 +185,13 @@ export function derivedNumbers(c: CaseDocument): DerivedNumbers {
 	}
 	if (c.bubbles.classes === 'single') {
 		const ugSp = massFlux / rhoSp;
-		const trans = reillyTransition({ gasDensityKgM3: rhoSp, liquidDensityKgM3: l.densityKgM3, surfaceTensionNM: l.surfaceTensionNM });
+		const { point: trans, source } = caseTransition(c, rhoSp);
 		if (ugSp > trans.velocityMS) {
 			// one size of a few millimetres over-predicts holdup above the transition and fails in churn-turbulent flow
 			// (air–water, 0.3 m: 1.7–2.6 times Akita–Yoshida at 0.02–0.06 m/s and failing from 0.08 m/s with 4 mm bubbles;
 			// a 0.3 m section with 5 mm bubbles fails at 0.2 m/s, tests/e2e/section-classes.spec.ts)
 			warnings.push(
-				`One bubble size above the regime transition (${trans.velocityMS.toPrecision(2)} m/s, Reilly et al. 1994): in churn-turbulent flow large bubbles carry most of the gas, and one size of small bubbles over-predicts the holdup or fails; small + large bubbles is the description checked there`
+				`One bubble size above the regime transition (${trans.velocityMS.toPrecision(2)} m/s, ${source}): in churn-turbulent flow large bubbles carry most of the gas, and one size of small bubbles over-predicts the holdup or fails; small + large bubbles is the description checked there`
 			);
 		}
 	}

@@ -9,3 +9,4 @@ export * from './churn.js';
 export * from './axial-dispersion.js';
 export * from './heat-transfer.js';
 export * from './solubility.js';
+export * from './circulation.js';

@@ -96,6 +96,12 @@ export interface CrossSectionClass extends Omit<GasClassConfig, 'inflowShare'> {
 	terminalReynolds: number;
 	/** the class's share of the superficial gas velocity, m/s */
 	superficialGasVelocityMS: number;
+	/**
+	 * whether the case's wall-lubrication force acts on the class: not on cap bubbles, since Antal et al. (1991) and
+	 * Tomiyama (1998) describe bubbles of a few millimetres and the wall's effect on caps is their slower rise
+	 * (Collins' wall factor in their drag)
+	 */
+	wallLubrication: boolean;
 }
 
 /** The numbers the model uses, resolved from a case once. SI units. */
@@ -146,7 +152,8 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 		widthEotvos: tomiyamaWidthEotvos(sizeOf(d)),
 		terminalVelocityMS: ut,
 		terminalReynolds: (rl * ut * d) / mul,
-		superficialGasVelocityMS: ugs
+		superficialGasVelocityMS: ugs,
+		wallLubrication: true
 	};
 	let classes: CrossSectionClass[] = [first];
 	if (c.bubbles.classes === 'small-large') {
@@ -155,9 +162,9 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 		classes = plan.classes.map((k, i) => {
 			if (i === 0) return { ...first, id: k.id, label: k.label, superficialGasVelocityMS: ugs * k.inflowShare };
 			const dk = k.diameterM;
-			const cdRe = k.drag === 'spherical-cap' ? 8 / 3 : 0;
+			const cap = k.drag === 'spherical-cap';
 			// a cap bubble's rise velocity from its drag: (4/3) g d Δρ = F C_D ρ_l u², C_D = 8/3 (Eo → ∞, Tomiyama et al. 1998)
-			const utk = k.drag === 'spherical-cap' ? Math.sqrt(((4 / 3) * g * dk * (rl - rg)) / (cdRe * k.dragFactor * rl)) : terminalVelocity({ ...sizeOf(dk), law: k.drag, liquidViscosityPaS: mul });
+			const utk = k.drag === 'spherical-cap' ? Math.sqrt(((4 / 3) * g * dk * (rl - rg)) / ((8 / 3) * k.dragFactor * rl)) : terminalVelocity({ ...sizeOf(dk), law: k.drag, liquidViscosityPaS: mul });
 			return {
 				id: k.id,
 				label: k.label,
@@ -169,7 +176,8 @@ export function crossSectionParameters(c: CaseDocument): CrossSectionParameters 
 				widthEotvos: tomiyamaWidthEotvos(sizeOf(dk)),
 				terminalVelocityMS: utk,
 				terminalReynolds: (rl * utk * dk) / mul,
-				superficialGasVelocityMS: ugs * k.inflowShare
+				superficialGasVelocityMS: ugs * k.inflowShare,
+				wallLubrication: !cap
 			};
 		});
 	}
@@ -274,16 +282,6 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 	}));
 	const momentumClasses = cls.map((k) => ({ holdup: k.alphaN, virtualMassCoefficient: k.cvm, dragSlope: k.dragSlope, dragOffset: k.dragOffset, gasVelocityOld: k.ug, gasVelocity: k.ugN }));
 
-	/** α = Σ α_k (several classes). */
-	function sumClasses(total: Float64Array, pick: (k: ClassState) => Float64Array): void {
-		if (nc === 1) return;
-		total.fill(0);
-		for (const k of cls) {
-			const a = pick(k);
-			for (let i = 0; i < n; i++) total[i] += a[i];
-		}
-	}
-
 	// initial state: uniform holdup of each class from its single-bubble slip, uniform liquid velocity
 	{
 		let a0 = 0;
@@ -316,9 +314,7 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 	}
 
 	function wallForcePerGas(k: CrossSectionClass, s: number, y: number): number {
-		// Antal et al. (1991) and Tomiyama (1998) describe bubbles of a few millimetres; the wall's effect on cap
-		// bubbles is their slower rise (Collins' wall factor in their drag), so the large class has no wall force
-		if (k.drag === 'spherical-cap') return 0;
+		if (!k.wallLubrication) return 0;
 		return wallLubricationForce({
 			model: cl.wallLubrication,
 			holdup: 1,
@@ -472,7 +468,11 @@ export function createCrossSectionSimulation(caseDoc: CaseDocument): Simulation 
 				}
 			}
 		}
-		sumClasses(alphaN, (k) => k.alphaN);
+		// α = Σ α_k (with one class the class's array is α itself)
+		if (nc > 1) {
+			alphaN.fill(0);
+			for (const k of cls) for (let i = 0; i < n; i++) alphaN[i] += k.alphaN[i];
+		}
 		for (let i = 0; i < n; i++) {
 			if (alphaN[i] > MAX_HOLDUP) {
 				// with classes the usual cause is the large bubbles gathering on the axis (README, cross-section bubble classes)

@@ -84,7 +84,7 @@ function planSizeClasses(c: CaseDocument, d: number, rhoSp: number): ClassPlan {
 
 
 /** The transition of the case: Reilly et al. (1994) at the sparger gas density, or the analyst's fixed values. */
-function caseTransition(c: CaseDocument, rhoSp: number): { point: TransitionPoint; source: string } {
+export function caseTransition(c: CaseDocument, rhoSp: number): { point: TransitionPoint; source: string } {
 	const b = c.bubbles;
 	if (b.transition === 'fixed') return { point: { velocityMS: b.transitionVelocityMS, holdup: b.transitionHoldup }, source: 'entered by the analyst' };
 	return {

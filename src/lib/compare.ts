@@ -4,7 +4,7 @@
  */
 import { interpolateLinear } from './measurements/compare.js';
 import { getPath } from './components/case-editor/fields.js';
-import { categoricalDesign } from './fields.js';
+import { categoricalDesign, categoryParts } from './fields.js';
 
 export interface CompareRun {
 	id: string;
@@ -61,9 +61,9 @@ export function designTable(options: { runs: CompareRun[]; baselineId: string })
 		const values = runs.map((r) => (r.design?.[id] && Number.isFinite(r.design[id].value) ? r.design[id].value : null));
 		if (categoricalDesign.has(id)) {
 			// `Holdup peak: core-peaked`: the name once, the category per run, no arithmetic on the codes
-			const categories = runs.map((r) => r.design?.[id]?.label.split(': ').slice(1).join(': ') || null);
+			const categories = runs.map((r) => (r.design?.[id] ? categoryParts(r.design[id].label).category || null : null));
 			const none = runs.map(() => null);
-			return { id, label: meta?.label.split(': ')[0] ?? id, unit: meta?.unit ?? '', values, deltas: none, relativeDeltas: none, categories };
+			return { id, label: meta ? categoryParts(meta.label).name : id, unit: meta?.unit ?? '', values, deltas: none, relativeDeltas: none, categories };
 		}
 		const b = base.design?.[id]?.value;
 		const deltas = runs.map((r, i) => (r.id === base.id || values[i] === null || b === undefined ? null : (values[i] as number) - b));

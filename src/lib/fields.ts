@@ -141,6 +141,12 @@ export function profileOrder(kind: string): string[] {
 /** Design numbers whose value is a category (0/1) named by their label after ': ', e.g. `Holdup peak: core-peaked`. */
 export const categoricalDesign: ReadonlySet<string> = new Set(['regime', 'peakLocation', 'peakLocationSmall', 'peakLocationLarge']);
 
+/** A categorical number's label as its name and its category: `Holdup peak: core-peaked` → both parts ('' without one). */
+export function categoryParts(label: string): { name: string; category: string } {
+	const [name, ...rest] = label.split(': ');
+	return { name, category: rest.join(': ') };
+}
+
 /** Design numbers that are published correlations, shown beside the run's own holdup as checks. */
 export const correlationChecks = ['akitaYoshidaHoldup', 'hughmarkHoldup', 'hikitaHoldup', 'driftFluxHoldup'];
 

@@ -44,3 +44,15 @@ export async function compareRuns(lead: Page, o: { runIds: string[]; name: strin
 	await lead.getByTestId('save-comparison').click();
 	await expect(lead).toHaveURL(/\/compare\/[0-9a-f-]{36}$/);
 }
+
+/**
+ * From the case editor: Save and queue run, then wait on the run page until the run ends with a status matching
+ * `status` (by default converged or finished). Returns the run's id.
+ */
+export async function queueRun(page: Page, status: string | RegExp = /converged|finished/): Promise<string> {
+	await page.getByTestId('queue-run').click();
+	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+	const runId = page.url().split('/').pop()!;
+	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', status, { timeout: 180_000 });
+	return runId;
+}

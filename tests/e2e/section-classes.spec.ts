@@ -6,7 +6,8 @@
  * which seeds the demo work only while the pilot column C-101 has no cases.
  */
 import { expect, test } from '@playwright/test';
-import { compareRuns, openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { compareRuns, openNewCaseOfPilot, queueRun, ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { riquartsCentrelineVelocityMS } from '../../solver/correlations/circulation';
 
 test.describe.configure({ mode: 'serial', timeout: 240_000 });
 
@@ -43,11 +44,8 @@ test('a churn-turbulent cross-section with small and large bubbles, set up in th
 	await section.scrollIntoViewIfNeeded();
 	await page.screenshot({ path: `${SHOTS}/section-classes-10-case-editor.png` });
 
-	await page.getByTestId('queue-run').click();
-	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
-	classesRunId = page.url().split('/').pop()!;
+	classesRunId = await queueRun(page);
 	caseUrl = (await page.locator('a[href^="/cases/"]').first().getAttribute('href'))!;
-	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
 
 	// solver test: 0.3 m at 0.2 m/s gives a section holdup of 0.20 (the correlations' mean 0.23), small bubbles at
 	// the wall, large ones in the core, and a centreline velocity 1.1 times Riquarts (1981)
@@ -61,7 +59,7 @@ test('a churn-turbulent cross-section with small and large bubbles, set up in th
 	const large = await number(page.getByTestId('design-sectionHoldupLarge').textContent());
 	expect(Math.abs(small + large - holdup)).toBeLessThan(0.002);
 	const uc = await number(page.getByTestId('design-centrelineLiquidVelocityMS').textContent());
-	const riquarts = 0.21 * Math.sqrt(9.81 * 0.3) * Math.pow(0.2 ** 3 / (9.81 * (1.002e-3 / 998.2)), 1 / 8);
+	const riquarts = riquartsCentrelineVelocityMS({ diameterM: 0.3, superficialGasVelocityMS: 0.2, liquidKinematicViscosityM2S: 1.002e-3 / 998.2 });
 	expect(Math.abs(uc / riquarts - 1)).toBeLessThan(0.3);
 
 	// each class's holdup across the radius is among the profiles
@@ -86,9 +84,7 @@ test('one bubble size fails in churn-turbulent flow, and the lead compares the c
 	await analyst.waitForLoadState('networkidle');
 	// the same 0.2 m/s with one 5 mm size: the slow bubbles pile up until the holdup limit (the gap the classes close)
 	await analyst.getByTestId('field-bubbles.classes').selectOption('single');
-	await analyst.getByTestId('queue-run').click();
-	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
-	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', 'failed', { timeout: 180_000 });
+	await queueRun(analyst, 'failed');
 	await expect(analyst.getByTestId('run-progress')).toContainText(/Gas holdup 0\.8\d* in cell/);
 	// the progress line says how far the run went, not the 0 steps it had when the page opened
 	expect(Number(await analyst.getByTestId('step-count').innerText())).toBeGreaterThan(10);
@@ -99,10 +95,7 @@ test('one bubble size fails in churn-turbulent flow, and the lead compares the c
 	await analyst.waitForLoadState('networkidle');
 	await analyst.getByTestId('field-bubbles.classes').selectOption('small-large');
 	await analyst.getByTestId('field-closures.lift').selectOption('none');
-	await analyst.getByTestId('queue-run').click();
-	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
-	const noLiftRunId = analyst.url().split('/').pop()!;
-	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
+	const noLiftRunId = await queueRun(analyst);
 	await context.close();
 
 	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });

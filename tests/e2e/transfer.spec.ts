@@ -5,7 +5,7 @@
  * own series. Screenshots go to artifacts/screenshots (git-ignored).
  */
 import { expect, test } from '@playwright/test';
-import { compareRuns, openNewCaseOfPilot, ANALYST, LEAD, SHOTS, signIn } from './demo';
+import { compareRuns, openNewCaseOfPilot, queueRun, ANALYST, LEAD, SHOTS, signIn } from './demo';
 
 test.describe.configure({ mode: 'serial', timeout: 240_000 });
 
@@ -60,11 +60,8 @@ test('a batch re-aeration test set up in the editor, run by the worker and analy
 	await section.scrollIntoViewIfNeeded();
 	await page.screenshot({ path: `${SHOTS}/transfer-10-case-editor.png` });
 
-	await page.getByTestId('queue-run').click();
-	await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
-	firstRunId = page.url().split('/').pop()!;
+	firstRunId = await queueRun(page);
 	caseUrl = (await page.locator('a[href^="/cases/"]').first().getAttribute('href'))!;
-	await expect(page.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
 
 	// the transfer design numbers, each explaining itself
 	for (const id of ['sotrKgH', 'sotePercent', 'sotePerMetrePercentM', 'apparentKLaPerS', 'effectiveSaturationDepthM', 'liquidDispersionM2S', 'wallHeatTransferWM2K']) {
@@ -102,10 +99,7 @@ test('the lead compares the rigid and the mobile interface and sees the transfer
 	await analyst.goto(caseUrl);
 	await analyst.waitForLoadState('networkidle');
 	await analyst.getByTestId('field-transfer.massTransferCoefficient').selectOption('higbie');
-	await analyst.getByTestId('queue-run').click();
-	await expect(analyst).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
-	const secondRunId = analyst.url().split('/').pop()!;
-	await expect(analyst.getByTestId('run-status')).toHaveAttribute('data-status', /converged|finished/, { timeout: 180_000 });
+	const secondRunId = await queueRun(analyst);
 	await context.close();
 
 	const leadContext = await browser.newContext({ viewport: { width: 1400, height: 1000 } });

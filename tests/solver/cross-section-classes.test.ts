@@ -11,9 +11,9 @@ import { createCrossSectionSimulation, crossSectionParameters, FLUX_RELAXATION_H
 import { tomiyamaLiftCoefficient } from '../../solver/closures/lift.js';
 import { akitaYoshidaHoldup } from '../../solver/correlations/holdup.js';
 import { hikitaHoldup } from '../../solver/correlations/churn.js';
+import { riquartsCentrelineVelocityMS } from '../../solver/correlations/circulation.js';
 import { derivedNumbers } from '../../solver/derived.js';
 
-const g = 9.81;
 const rhoL = 998.2;
 const muL = 1.002e-3;
 const sigma = 0.0727;
@@ -33,9 +33,9 @@ function runToSteady(c: CaseDocument, maxSteps = 40000): { sim: Simulation; resu
 	return { sim, results: sim.results() };
 }
 
-/** Riquarts (1981), Chem.-Ing.-Tech. 53, 60 (formula from memory, PHYSICS §8.7): u_L(0) = 0.21 √(g D) (U_G³/(g ν_l))^(1/8). */
+/** Riquarts (1981), formula from memory (PHYSICS §8.7), for air–water at 20 °C. */
 function riquarts(diameterM: number, ugMS: number): number {
-	return 0.21 * Math.sqrt(g * diameterM) * Math.pow(ugMS ** 3 / (g * (muL / rhoL)), 1 / 8);
+	return riquartsCentrelineVelocityMS({ diameterM, superficialGasVelocityMS: ugMS, liquidKinematicViscosityM2S: muL / rhoL });
 }
 
 /** The mean of Akita & Yoshida (1973) and Hikita et al. (1980) for air–water at the section's gas density. */

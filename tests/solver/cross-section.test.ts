@@ -12,6 +12,7 @@ import {
 	transportHoldup
 } from '../../solver/cross-section/index.js';
 import { blasiusFrictionFactor, colebrookFrictionFactor, pipeCase, recirculationProfile } from '../../solver/verification/problems.js';
+import { riquartsCentrelineVelocityMS } from '../../solver/correlations/circulation.js';
 
 type Overrides = { [K in keyof CaseDocument]?: Partial<CaseDocument[K]> };
 
@@ -246,7 +247,7 @@ describe('cross-section model, batch air–water column (D = 0.2 m, U_g = 0.05 m
 	it('gives a centreline liquid velocity within a factor of two of Riquarts (1981)', () => {
 		// Riquarts (1981), Chem.-Ing.-Tech. 53, 60 (formula from memory, PHYSICS §8.7):
 		// u_L(0) = 0.21 √(g D) (U_G³/(g ν_l))^(1/8) = 0.404 m/s here (PHYSICS §15 #35)
-		const riquarts = 0.21 * Math.sqrt(g * 0.2) * Math.pow(0.05 ** 3 / (g * nuL), 1 / 8);
+		const riquarts = riquartsCentrelineVelocityMS({ diameterM: 0.2, superficialGasVelocityMS: 0.05, liquidKinematicViscosityM2S: nuL });
 		expect(Math.abs(riquarts - 0.404)).toBeLessThan(0.004);
 		// Tolerance: the formula is unverified and measured centreline velocities scatter about ±30 % round
 		// such correlations; a one-size model moves its centreline velocity from 0.34 to 0.64 m/s as d goes

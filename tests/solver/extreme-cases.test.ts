@@ -41,66 +41,44 @@ function base(name: string): CaseDocument {
 	return c;
 }
 
+/** Each extreme on its own, as a change to a case; "all at once" applies them together. */
+const finest = (c: CaseDocument) => {
+	c.numerics.cells = 5000;
+};
+const tallest = (c: CaseDocument) => {
+	c.geometry.heightM = 50;
+	c.geometry.clearLiquidLevelM = 30;
+};
+const highestPressure = (c: CaseDocument) => {
+	c.fluids.topPressurePa = 1e7;
+};
+const viscous = (c: CaseDocument) => {
+	c.fluids.preset = null;
+	c.fluids.liquid.name = 'viscous liquid';
+	c.fluids.liquid.viscosityPaS = 1;
+};
+
+function extreme(name: string, changes: ((c: CaseDocument) => void)[], endTimeS: number, snapshotIntervalS?: number): CaseDocument {
+	const c = base(name);
+	for (const change of changes) change(c);
+	c.numerics.endTimeS = endTimeS;
+	if (snapshotIntervalS !== undefined) c.numerics.snapshotIntervalS = snapshotIntervalS;
+	return c;
+}
+
 const extremes: { name: string; make: () => CaseDocument; mustEndNormally?: boolean }[] = [
 	{
 		name: 'the finest grid: 5000 cells in the 2 m column',
-		make: () => {
-			const c = base('5000 cells');
-			c.numerics.cells = 5000;
-			// 0.4 mm cells: 0.05 s is a few hundred steps
-			c.numerics.endTimeS = 0.05;
-			c.numerics.snapshotIntervalS = 0.05;
-			return c;
-		},
+		// 0.4 mm cells: 0.05 s is a few hundred steps
+		make: () => extreme('5000 cells', [finest], 0.05, 0.05),
 		// the default two bubble classes: the large bubbles' interfacial pressure at the sharp front of the first
 		// gas once ran away here (NaN gas velocity at t ≈ 0.025 s); capped at the drag it must run to its end time
 		mustEndNormally: true
 	},
-	{
-		name: 'the tallest column: 50 m, 30 m of clear liquid',
-		make: () => {
-			const c = base('50 m column');
-			c.geometry.heightM = 50;
-			c.geometry.clearLiquidLevelM = 30;
-			c.numerics.endTimeS = 300;
-			return c;
-		}
-	},
-	{
-		name: 'the highest top pressure: 100 bar',
-		make: () => {
-			const c = base('100 bar');
-			c.fluids.topPressurePa = 1e7;
-			c.numerics.endTimeS = 60;
-			return c;
-		}
-	},
-	{
-		name: 'a viscous liquid: 1 Pa·s',
-		make: () => {
-			const c = base('1 Pa·s liquid');
-			c.fluids.preset = null;
-			c.fluids.liquid.name = 'viscous liquid';
-			c.fluids.liquid.viscosityPaS = 1;
-			c.numerics.endTimeS = 60;
-			return c;
-		}
-	},
-	{
-		name: 'all at once: 5000 cells, 50 m, 100 bar, 1 Pa·s',
-		make: () => {
-			const c = base('all extremes');
-			c.geometry.heightM = 50;
-			c.geometry.clearLiquidLevelM = 30;
-			c.fluids.topPressurePa = 1e7;
-			c.fluids.preset = null;
-			c.fluids.liquid.viscosityPaS = 1;
-			c.numerics.cells = 5000;
-			c.numerics.endTimeS = 0.5;
-			c.numerics.snapshotIntervalS = 0.5;
-			return c;
-		}
-	}
+	{ name: 'the tallest column: 50 m, 30 m of clear liquid', make: () => extreme('50 m column', [tallest], 300) },
+	{ name: 'the highest top pressure: 100 bar', make: () => extreme('100 bar', [highestPressure], 60) },
+	{ name: 'a viscous liquid: 1 Pa·s', make: () => extreme('1 Pa·s liquid', [viscous], 60) },
+	{ name: 'all at once: 5000 cells, 50 m, 100 bar, 1 Pa·s', make: () => extreme('all extremes', [finest, tallest, highestPressure, viscous], 0.5, 0.5) }
 ];
 
 /** Names of every non-finite number in the results: design numbers, profiles, positions. */
